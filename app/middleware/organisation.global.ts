@@ -1,0 +1,10 @@
+import type { Role } from '#shared/types/organisation'
+import { mayOpen } from '#shared/navigation'
+
+/** Sends a signed-in user without an active organisation to the picker, and a role away from pages it may not use. */
+export default defineNuxtRouteMiddleware((to) => {
+  const { session, role } = useCaller()
+  if (!session.value) return
+  if (!session.value.organisation && to.path !== '/organisations') return navigateTo('/organisations')
+  if (!mayOpen(role.value, to.meta.roles as Role[] | undefined)) return navigateTo('/')
+})

@@ -1,0 +1,51 @@
+// `npm test`: packages, PostgreSQL and Chromium as `npm start` has them, then every test on a
+// throw-away database that is dropped afterwards.
+import { spawn } from 'node:child_process'
+import { buildIfStale, dropDatabase, ensureChromium, ensureDatabase, ensurePackages, ensurePostgres, root, serverEnv, setUpDatabase, step } from './lib/setup.mjs'
+
+const started = Date.now()
+ensurePackages()
+const chromium = ensureChromium()
+
+let cluster = null
+let adminUrl
+if (process.env.DATABASE_URL) {
+  // An external server: make the throw-away database beside the configured one.
+  const url = new URL(process.env.DATABASE_URL)
+  url.pathname = '/postgres'
+  adminUrl = url.toString()
+}
+else {
+  cluster = await ensurePostgres()
+  adminUrl = cluster.urlFor('postgres')
+}
+const testDb = `bloomline_test_${Date.now().toString(36)}_${process.pid}`
+await ensureDatabase(adminUrl, testDb)
+const databaseUrl = adminUrl.replace(/\/postgres$/, `/${testDb}`)
+step(`Throw-away database ${testDb} ready.`)
+
+let code = 1
+try {
+  setUpDatabase(databaseUrl, { seed: true })
+  buildIfStale()
+  const port = Number(process.env.BLOOMLINE_TEST_PORT || 3917)
+  const env = {
+    ...serverEnv({ port, databaseUrl, demoMode: true }),
+    BLOOMLINE_TEST_PORT: String(port),
+    BLOOMLINE_CHROMIUM: chromium,
+    BLOOMLINE_ADMIN_DATABASE_URL: adminUrl,
+    NODE_ENV: 'test',
+  }
+  step('Running the tests…')
+  const args = ['vitest', 'run', ...process.argv.slice(2)]
+  code = await new Promise((resolve) => {
+    const child = spawn('npx', args, { cwd: root, env, stdio: 'inherit' })
+    child.on('exit', c => resolve(c ?? 1))
+  })
+}
+finally {
+  await dropDatabase(adminUrl, testDb).catch(error => console.warn(`Could not drop ${testDb}: ${error.message}`))
+  if (cluster?.startedHere) cluster.stop()
+}
+step(`npm test finished in ${Math.round((Date.now() - started) / 1000)} s.`)
+process.exit(code)

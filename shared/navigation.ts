@@ -1,0 +1,33 @@
+import type { Role } from './types/organisation'
+
+/** One entry of the main navigation. */
+export interface NavItem {
+  to: string
+  label: string
+  /** Who sees it; the server enforces the same rule for the data behind it. */
+  roles: readonly Role[]
+  icon: 'home' | 'team' | 'settings' | 'organisations'
+}
+
+const EVERYONE: readonly Role[] = ['manager', 'handler', 'assistant']
+
+export const NAV_ITEMS: readonly NavItem[] = [
+  { to: '/', label: 'Home', roles: EVERYONE, icon: 'home' },
+  { to: '/team', label: 'Team', roles: ['manager', 'handler'], icon: 'team' },
+  { to: '/settings', label: 'Organisation', roles: ['manager'], icon: 'settings' },
+]
+
+/** The navigation a role sees, in its order; an assistant's own work comes first. */
+export function navigationFor(role: Role | null | undefined): NavItem[] {
+  if (!role) return []
+  const items = NAV_ITEMS.filter(item => item.roles.includes(role))
+  return role === 'assistant'
+    ? items.map(item => (item.to === '/' ? { ...item, label: 'My work' } : item))
+    : [...items]
+}
+
+/** Whether a role may open a page whose meta lists `roles` (no list: everyone signed in). */
+export function mayOpen(role: Role | null | undefined, roles?: readonly Role[]): boolean {
+  if (!roles) return true
+  return !!role && roles.includes(role)
+}

@@ -1,0 +1,86 @@
+import { afterEach, describe, expect, it } from 'vitest'
+import { SIGN_IN_FAILED } from '../../../shared/auth'
+import { openBrowser, screenshot, signInThroughForm, type Page } from '../helpers/browser'
+import { baseUrl } from '../helpers/http'
+
+let close: (() => Promise<void>) | undefined
+afterEach(async () => {
+  await close?.()
+  close = undefined
+})
+
+async function navLabels(page: Page) {
+  return page.locator('nav[aria-label="Main"] a').allInnerTexts().then(texts => texts.map(t => t.trim()))
+}
+
+describe('the app shell in Chromium', () => {
+  it('sends a visitor to the sign-in page, and a wrong password gets the shared message', async () => {
+    const browser = await openBrowser('desktop')
+    close = browser.close
+    const { page } = browser
+    await page.goto(`${baseUrl}/team`)
+    await page.waitForURL(/\/signin/)
+    await screenshot(page, 'signin-desktop')
+    await signInThroughForm(page, 'handler', 'not-the-password')
+    await expect.poll(() => page.getByTestId('sign-in-message').textContent()).toBe(SIGN_IN_FAILED)
+  })
+
+  it.each(['desktop', 'phone'] as const)('a manager sees every section, changes nothing by looking, and signs out (%s)', async (viewport) => {
+    const browser = await openBrowser(viewport)
+    close = browser.close
+    const { page } = browser
+    await signInThroughForm(page, 'manager')
+    await page.waitForURL(`${baseUrl}/`)
+    await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toMatch(/Good (morning|afternoon|evening), Maren/)
+    await screenshot(page, `manager-home-${viewport}`)
+    if (viewport === 'phone') {
+      await expect.poll(() => page.locator('nav[aria-label="Main"]').isVisible()).toBe(false)
+      await page.getByTestId('menu-toggle').click()
+      await screenshot(page, 'manager-menu-phone')
+    }
+    expect(await navLabels(page)).toEqual(['Home', 'Team', 'Organisation'])
+    await page.locator('[data-nav="/team"]').click()
+    await page.waitForURL(`${baseUrl}/team`)
+    await expect.poll(() => page.getByTestId('team-list').locator('li').count()).toBe(5)
+    await screenshot(page, `manager-team-${viewport}`)
+
+    if (viewport === 'phone') await page.getByTestId('menu-toggle').click()
+    await page.getByTestId('sign-out').click()
+    await page.waitForURL(/\/signin/)
+    await page.goto(`${baseUrl}/`)
+    await page.waitForURL(/\/signin/)
+  })
+
+  it.each(['desktop', 'phone'] as const)('an assistant sees their own work first and no team or settings (%s)', async (viewport) => {
+    const browser = await openBrowser(viewport)
+    close = browser.close
+    const { page } = browser
+    await signInThroughForm(page, 'assistant')
+    await page.waitForURL(`${baseUrl}/`)
+    await expect.poll(() => page.getByTestId('my-work-empty').isVisible()).toBe(true)
+    await expect.poll(() => page.getByTestId('coat-cautions').textContent()).toMatch(/veterinarian/i)
+    await screenshot(page, `assistant-home-${viewport}`)
+    if (viewport === 'phone') await page.getByTestId('menu-toggle').click()
+    expect(await navLabels(page)).toEqual(['My work'])
+    // The page is refused in the browser, and the data behind it by the server.
+    await page.goto(`${baseUrl}/team`)
+    await page.waitForURL(`${baseUrl}/`)
+  })
+
+  it('a user of two organisations picks one and works there', async () => {
+    const browser = await openBrowser('desktop')
+    close = browser.close
+    const { page } = browser
+    await signInThroughForm(page, 'manager')
+    await page.waitForURL(`${baseUrl}/`)
+    await page.getByRole('link', { name: 'Switch organisation' }).click()
+    await page.waitForURL(`${baseUrl}/organisations`)
+    await screenshot(page, 'organisations-desktop')
+    await page.locator('[data-organisation="Northfold Wire Terrier Club"]').click()
+    await expect.poll(() => page.getByTestId('active-organisation').textContent()).toBe('Northfold Wire Terrier Club')
+    expect(await navLabels(page)).toEqual(['Home', 'Team'])
+    await page.getByRole('link', { name: 'Switch organisation' }).click()
+    await page.locator('[data-organisation="Larkspur Hollow Kennel"]').click()
+    await expect.poll(() => page.getByTestId('active-organisation').textContent()).toBe('Larkspur Hollow Kennel')
+  })
+})

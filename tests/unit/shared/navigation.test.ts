@@ -1,0 +1,27 @@
+import { describe, expect, it } from 'vitest'
+import { mayOpen, navigationFor } from '../../../shared/navigation'
+
+// The role table of the product design brief, section 2: a manager sees every section, a handler
+// reads the team, an assistant sees their own work first.
+describe('navigationFor', () => {
+  it.each([
+    ['manager', ['Home', 'Team', 'Organisation']],
+    ['handler', ['Home', 'Team']],
+    ['assistant', ['My work']],
+    [null, []],
+  ] as const)('%s sees %j', (role, labels) => {
+    expect(navigationFor(role).map(i => i.label)).toEqual(labels)
+  })
+})
+
+describe('mayOpen', () => {
+  it.each([
+    ['manager', ['manager'], true],
+    ['handler', ['manager'], false],
+    ['assistant', ['manager', 'handler'], false],
+    ['assistant', undefined, true],
+    [null, ['manager'], false],
+  ] as const)('%s on a page for %j: %s', (role, roles, expected) => {
+    expect(mayOpen(role, roles)).toBe(expected)
+  })
+})

@@ -1,0 +1,38 @@
+import { fileURLToPath } from 'node:url'
+import { defineConfig } from 'vitest/config'
+import { defineVitestProject } from '@nuxt/test-utils/config'
+
+const root = fileURLToPath(new URL('.', import.meta.url))
+
+export default defineConfig({
+  test: {
+    projects: [
+      {
+        resolve: { alias: { '#shared': `${root}shared` } },
+        test: {
+          name: 'unit',
+          environment: 'node',
+          include: ['tests/unit/**/*.test.ts'],
+        },
+      },
+      await defineVitestProject({
+        test: {
+          name: 'nuxt',
+          environment: 'nuxt',
+          include: ['tests/nuxt/**/*.test.ts'],
+        },
+      }),
+      {
+        test: {
+          name: 'e2e',
+          environment: 'node',
+          include: ['tests/e2e/**/*.test.ts'],
+          globalSetup: ['tests/e2e/setup/global.ts'],
+          testTimeout: 60_000,
+          hookTimeout: 120_000,
+          fileParallelism: false,
+        },
+      },
+    ],
+  },
+})
