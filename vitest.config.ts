@@ -19,6 +19,8 @@ export default defineConfig({
         test: {
           name: 'nuxt',
           environment: 'nuxt',
+          // Components are tested without the sign-in module, which would call a server that is not there.
+          environmentOptions: { nuxt: { overrides: { auth: { isEnabled: false } } } },
           include: ['tests/nuxt/**/*.test.ts'],
         },
       }),

@@ -1,6 +1,6 @@
 import { afterEach, describe, expect, it } from 'vitest'
 import { SIGN_IN_FAILED } from '../../../shared/auth'
-import { openBrowser, screenshot, signInThroughForm, type Page } from '../helpers/browser'
+import { accessibilityProblems, openBrowser, screenshot, signInThroughForm, type Page } from '../helpers/browser'
 import { baseUrl } from '../helpers/http'
 
 let close: (() => Promise<void>) | undefined
@@ -21,6 +21,7 @@ describe('the app shell in Chromium', () => {
     await page.goto(`${baseUrl}/team`)
     await page.waitForURL(/\/signin/)
     await screenshot(page, 'signin-desktop')
+    expect(await accessibilityProblems(page)).toEqual([])
     await signInThroughForm(page, 'handler', 'not-the-password')
     await expect.poll(() => page.getByTestId('sign-in-message').textContent()).toBe(SIGN_IN_FAILED)
   })
@@ -33,7 +34,10 @@ describe('the app shell in Chromium', () => {
     await page.waitForURL(`${baseUrl}/`)
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toMatch(/Good (morning|afternoon|evening), Maren/)
     await screenshot(page, `manager-home-${viewport}`)
+    expect(await accessibilityProblems(page)).toEqual([])
     if (viewport === 'phone') {
+      // Readable at 360 px: nothing wider than the screen, so no sideways scrolling.
+      expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(360)
       await expect.poll(() => page.locator('nav[aria-label="Main"]').isVisible()).toBe(false)
       await page.getByTestId('menu-toggle').click()
       await screenshot(page, 'manager-menu-phone')
@@ -43,6 +47,7 @@ describe('the app shell in Chromium', () => {
     await page.waitForURL(`${baseUrl}/team`)
     await expect.poll(() => page.getByTestId('team-list').locator('li').count()).toBe(5)
     await screenshot(page, `manager-team-${viewport}`)
+    expect(await accessibilityProblems(page)).toEqual([])
 
     if (viewport === 'phone') await page.getByTestId('menu-toggle').click()
     await page.getByTestId('sign-out').click()
@@ -60,6 +65,7 @@ describe('the app shell in Chromium', () => {
     await expect.poll(() => page.getByTestId('my-work-empty').isVisible()).toBe(true)
     await expect.poll(() => page.getByTestId('coat-cautions').textContent()).toMatch(/veterinarian/i)
     await screenshot(page, `assistant-home-${viewport}`)
+    expect(await accessibilityProblems(page)).toEqual([])
     if (viewport === 'phone') await page.getByTestId('menu-toggle').click()
     expect(await navLabels(page)).toEqual(['My work'])
     // The page is refused in the browser, and the data behind it by the server.

@@ -1,4 +1,5 @@
 import { mkdirSync, mkdtempSync, rmSync } from 'node:fs'
+import { createRequire } from 'node:module'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { chromium, type BrowserContext, type Page } from 'playwright-core'
@@ -45,6 +46,22 @@ export async function signInThroughForm(page: Page, roleOrEmail: Role | string, 
 export async function screenshot(page: Page, name: string) {
   mkdirSync(screenshotDir, { recursive: true })
   await page.screenshot({ path: join(screenshotDir, `${name}.png`), fullPage: true })
+}
+
+const axePath = createRequire(import.meta.url).resolve('axe-core/axe.min.js')
+
+/**
+ * The WCAG 2.x level A and AA failures axe-core finds on the page (contrast, labels, names, …),
+ * one line each: axe-core is Deque's reference rule engine for WCAG checks.
+ */
+export async function accessibilityProblems(page: Page): Promise<string[]> {
+  await page.addScriptTag({ path: axePath })
+  const violations = await page.evaluate(async () => {
+    const axe = (window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: { id: string, help: string, nodes: { target: string[] }[] }[] }> } }).axe
+    const result = await axe.run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21aa', 'wcag22aa'] } })
+    return result.violations.map(v => `${v.id}: ${v.help} (${v.nodes.map(n => n.target.join(' ')).join(', ')})`)
+  })
+  return violations
 }
 
 export type { BrowserContext, Page }
