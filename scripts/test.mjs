@@ -1,6 +1,6 @@
 // `npm test`: packages, PostgreSQL and Chromium as `npm start` has them, then every test on a
 // throw-away database that is dropped afterwards.
-import { spawn } from 'node:child_process'
+import { spawn, spawnSync } from 'node:child_process'
 import { buildIfStale, dropDatabase, ensureChromium, ensureDatabase, ensurePackages, ensurePostgres, root, serverEnv, setUpDatabase, step } from './lib/setup.mjs'
 
 const started = Date.now()
@@ -36,12 +36,18 @@ try {
     BLOOMLINE_ADMIN_DATABASE_URL: adminUrl,
     NODE_ENV: 'test',
   }
+  step('Type-checking app, server, shared and tests…')
+  const typecheck = spawnSync('npm', ['run', '--silent', 'typecheck'], { cwd: root, stdio: 'inherit' })
+  if (typecheck.status !== 0) throw new Error('Type errors: see above.')
   step('Running the tests…')
   const args = ['vitest', 'run', ...process.argv.slice(2)]
   code = await new Promise((resolve) => {
     const child = spawn('npx', args, { cwd: root, env, stdio: 'inherit' })
     child.on('exit', c => resolve(c ?? 1))
   })
+}
+catch (error) {
+  console.error(`\n\x1b[31m✖\x1b[0m ${error.message}\n`)
 }
 finally {
   await dropDatabase(adminUrl, testDb).catch(error => console.warn(`Could not drop ${testDb}: ${error.message}`))

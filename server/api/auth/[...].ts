@@ -70,7 +70,7 @@ export default defineEventHandler(async (event) => {
     const lockedUntil = await signInLockedUntil(email)
     if (lockedUntil) {
       const minutes = Math.max(1, Math.ceil((lockedUntil.getTime() - Date.now()) / 60_000))
-      setResponseHeader(event, 'Retry-After', String(minutes * 60))
+      setResponseHeader(event, 'Retry-After', minutes * 60)
       throw createError({
         statusCode: 429,
         statusMessage: 'Too Many Requests',
