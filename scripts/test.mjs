@@ -36,9 +36,11 @@ try {
     BLOOMLINE_ADMIN_DATABASE_URL: adminUrl,
     NODE_ENV: 'test',
   }
-  step('Type-checking app, server, shared and tests…')
-  const typecheck = spawnSync('npm', ['run', '--silent', 'typecheck'], { cwd: root, stdio: 'inherit' })
-  if (typecheck.status !== 0) throw new Error('Type errors: see above.')
+  if (process.env.BLOOMLINE_SKIP_TYPECHECK !== '1') {
+    step('Type-checking app, server, shared and tests…')
+    const typecheck = spawnSync('npm', ['run', '--silent', 'typecheck'], { cwd: root, stdio: 'inherit' })
+    if (typecheck.status !== 0) throw new Error('Type errors: see above.')
+  }
   step('Running the tests…')
   const args = ['vitest', 'run', ...process.argv.slice(2)]
   code = await new Promise((resolve) => {

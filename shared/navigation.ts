@@ -6,13 +6,17 @@ export interface NavItem {
   label: string
   /** Who sees it; the server enforces the same rule for the data behind it. */
   roles: readonly Role[]
-  icon: 'home' | 'team' | 'settings' | 'organisations'
+  icon: 'home' | 'team' | 'settings' | 'organisations' | 'grid' | 'dog' | 'show' | 'profile'
 }
 
 const EVERYONE: readonly Role[] = ['manager', 'handler', 'assistant']
 
 export const NAV_ITEMS: readonly NavItem[] = [
   { to: '/', label: 'Home', roles: EVERYONE, icon: 'home' },
+  { to: '/grid', label: 'Coat grid', roles: ['manager', 'handler'], icon: 'grid' },
+  { to: '/dogs', label: 'Dogs', roles: EVERYONE, icon: 'dog' },
+  { to: '/shows', label: 'Shows', roles: ['manager', 'handler'], icon: 'show' },
+  { to: '/profiles', label: 'Coat profiles', roles: ['manager'], icon: 'profile' },
   { to: '/team', label: 'Team', roles: ['manager', 'handler'], icon: 'team' },
   { to: '/settings', label: 'Organisation', roles: ['manager'], icon: 'settings' },
 ]

@@ -1,28 +1,69 @@
 import type { Sequelize } from 'sequelize'
 import { getSequelize } from '../connection'
+import { AuditEvent } from './auditEvent'
+import { CoatProfileRow } from './coatProfile'
+import { CoatWorkRow } from './coatWork'
+import { Dog } from './dog'
+import { Entry } from './entry'
 import { Membership } from './membership'
 import { Organisation } from './organisation'
+import { Show } from './show'
 import { SignInFailure, SignInLock } from './signInAttempt'
+import { Task } from './task'
 import { User } from './user'
 
-export { Membership, Organisation, SignInFailure, SignInLock, User }
+export { AuditEvent, CoatProfileRow, CoatWorkRow, Dog, Entry, Membership, Organisation, Show, SignInFailure, SignInLock, Task, User }
 
+const models = { Organisation, User, Membership, SignInFailure, SignInLock, CoatProfileRow, Dog, CoatWorkRow, Show, Entry, Task, AuditEvent }
 let ready: Sequelize | undefined
 
 /** Registers every model and association once, on the process's Sequelize instance. */
 export function initModels(sequelize: Sequelize = getSequelize()) {
-  if (ready === sequelize) return { sequelize, Organisation, User, Membership, SignInFailure, SignInLock }
+  if (ready === sequelize) return { sequelize, ...models }
   Organisation.setup(sequelize)
   User.setup(sequelize)
   Membership.setup(sequelize)
   SignInFailure.setup(sequelize)
   SignInLock.setup(sequelize)
+  CoatProfileRow.setup(sequelize)
+  Dog.setup(sequelize)
+  CoatWorkRow.setup(sequelize)
+  Show.setup(sequelize)
+  Entry.setup(sequelize)
+  Task.setup(sequelize)
+  AuditEvent.setup(sequelize)
 
   User.hasMany(Membership, { foreignKey: 'userId', as: 'memberships' })
   Membership.belongsTo(User, { foreignKey: 'userId', as: 'user' })
   Organisation.hasMany(Membership, { foreignKey: 'organisationId', as: 'memberships' })
   Membership.belongsTo(Organisation, { foreignKey: 'organisationId', as: 'organisation' })
 
+  const inOrganisation = { foreignKey: 'organisationId', as: 'organisation' }
+  CoatProfileRow.belongsTo(Organisation, inOrganisation)
+  Dog.belongsTo(Organisation, inOrganisation)
+  CoatWorkRow.belongsTo(Organisation, inOrganisation)
+  Show.belongsTo(Organisation, inOrganisation)
+  Entry.belongsTo(Organisation, inOrganisation)
+  Task.belongsTo(Organisation, inOrganisation)
+  AuditEvent.belongsTo(Organisation, inOrganisation)
+  Dog.belongsTo(User, { foreignKey: 'handlerId', as: 'handler' })
+  Dog.belongsTo(CoatProfileRow, { foreignKey: 'coatProfileId', as: 'coatProfile' })
+  Dog.hasMany(CoatWorkRow, { foreignKey: 'dogId', as: 'work' })
+  Dog.hasMany(Entry, { foreignKey: 'dogId', as: 'entries' })
+  Dog.hasMany(Task, { foreignKey: 'dogId', as: 'tasks' })
+  CoatWorkRow.belongsTo(Dog, { foreignKey: 'dogId', as: 'dog' })
+  CoatWorkRow.belongsTo(User, { foreignKey: 'workedById', as: 'workedBy' })
+  CoatWorkRow.belongsTo(User, { foreignKey: 'recordedById', as: 'recordedBy' })
+  CoatWorkRow.belongsTo(User, { foreignKey: 'deletedById', as: 'deletedBy' })
+  Show.hasMany(Entry, { foreignKey: 'showId', as: 'entries' })
+  Entry.belongsTo(Show, { foreignKey: 'showId', as: 'show' })
+  Entry.belongsTo(Dog, { foreignKey: 'dogId', as: 'dog' })
+  Entry.belongsTo(User, { foreignKey: 'handlerId', as: 'handler' })
+  Task.belongsTo(Dog, { foreignKey: 'dogId', as: 'dog' })
+  Task.belongsTo(User, { foreignKey: 'assigneeId', as: 'assignee' })
+  Task.belongsTo(User, { foreignKey: 'createdById', as: 'createdBy' })
+  AuditEvent.belongsTo(User, { foreignKey: 'actorId', as: 'actor' })
+
   ready = sequelize
-  return { sequelize, Organisation, User, Membership, SignInFailure, SignInLock }
+  return { sequelize, ...models }
 }

@@ -5,9 +5,9 @@ import { mayOpen, navigationFor } from '../../../shared/navigation'
 // reads the team, an assistant sees their own work first.
 describe('navigationFor', () => {
   it.each([
-    ['manager', ['Home', 'Team', 'Organisation']],
-    ['handler', ['Home', 'Team']],
-    ['assistant', ['My work']],
+    ['manager', ['Home', 'Coat grid', 'Dogs', 'Shows', 'Coat profiles', 'Team', 'Organisation']],
+    ['handler', ['Home', 'Coat grid', 'Dogs', 'Shows', 'Team']],
+    ['assistant', ['My work', 'Dogs']],
     [null, []],
   ] as const)('%s sees %j', (role, labels) => {
     expect(navigationFor(role).map(i => i.label)).toEqual(labels)
