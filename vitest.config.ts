@@ -31,6 +31,8 @@ export default defineConfig({
           include: ['tests/e2e/**/*.test.ts'],
           globalSetup: ['tests/e2e/setup/global.ts'],
           testTimeout: 60_000,
+          // Pages settle over a few requests on a busy two-core machine; 1 s (the default) is too tight.
+          expect: { poll: { timeout: 10_000 } },
           hookTimeout: 120_000,
           fileParallelism: false,
         },

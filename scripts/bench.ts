@@ -1,6 +1,7 @@
 import { performance } from 'node:perf_hooks'
 import { addDays, assessDog, DEFAULT_PROFILE, planWorkBack } from '../shared/coat'
 import type { CoatWork, WorkKind } from '../shared/coat'
+import { prng } from './lib/prng'
 
 // Times the coat model the way the coat grid and the weekly status use it: assessDog for
 // every (dog, show) and planWorkBack per dog, 10 regions, 5 shows and ~40 work entries a dog.
@@ -15,17 +16,6 @@ interface Dog {
   shows: string[]
 }
 
-// mulberry32: a small seeded PRNG, so every run times the same dogs.
-function prng(seed: number): () => number {
-  let a = seed >>> 0
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0
-    let t = a
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
-}
 
 function makeDogs(count: number, seed: number): Dog[] {
   const random = prng(seed)

@@ -131,3 +131,20 @@ export const readinessQuerySchema = z.object({
 export const gridQuerySchema = z.object({
   show: z.union([z.literal('next'), z.coerce.number().int().positive()]).optional(),
 })
+
+export const workListQuerySchema = z.object({
+  /** Only work on this region (a coat grid cell opens its region's history). */
+  region: z.string().trim().min(1).max(40).optional(),
+  from: isoDateSchema.optional(),
+  to: isoDateSchema.optional(),
+  /** 'true' lists deleted work too (managers only). */
+  deleted: z.enum(['true', 'false']).optional(),
+})
+
+/**
+ * The show form's check: a whole show, with the entries-close date and time given together, as
+ * the server requires (it refuses one without the other); the edit form sends the whole show too.
+ */
+export const showFormSchema = showCreateSchema
+  .refine(v => !v.entriesCloseTime || !!v.entriesCloseDate, { message: 'Give the date entries close as well as the time', path: ['entriesCloseDate'] })
+  .refine(v => !v.entriesCloseDate || !!v.entriesCloseTime, { message: 'Give the time entries close as well as the date', path: ['entriesCloseTime'] })

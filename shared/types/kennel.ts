@@ -183,3 +183,31 @@ export interface DashboardView {
 
 /** A page of a list. */
 export interface Page<T> { items: T[], total: number }
+
+/** How each work kind reads in the interface: a short name and what it is (DESIGN.md §3). */
+export const WORK_KIND_LABELS: Record<WorkKind, { word: string, hint: string }> = {
+  strip: { word: 'Strip', hint: 'Taken to the skin' },
+  layer: { word: 'Layer', hint: 'A serious layer pulled: this grows into the show coat' },
+  roll: { word: 'Roll', hint: 'A light pass on the longest hairs' },
+  card: { word: 'Card', hint: 'Undercoat carded or raked out' },
+  bath: { word: 'Bath', hint: 'Stands the coat up for work within a day or two' },
+  trim: { word: 'Trim', hint: 'Scissoring of furnishings' },
+}
+
+/** A piece of coat work in the log; `deletedAt` is set only on deleted work, which managers list with `?deleted=true`. */
+export interface CoatWorkLogItem extends CoatWorkView {
+  deletedAt: string | null
+  deletedBy: PersonRef | null
+}
+
+/** One recorded change (create, update, delete) with the record before and after it. */
+export interface AuditEventView {
+  id: number
+  entity: string
+  entityId: number
+  action: 'create' | 'update' | 'delete' | 'restore'
+  actor: PersonRef | null
+  at: string
+  before: Record<string, unknown> | null
+  after: Record<string, unknown> | null
+}

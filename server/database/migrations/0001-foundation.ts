@@ -1,8 +1,9 @@
-import { DataTypes, type QueryInterface } from 'sequelize'
+import { DataTypes, literal, type QueryInterface } from 'sequelize'
 
+// A database default as well as Sequelize's own, so raw inserts (bulk loads, scripts) get timestamps too.
 const timestamps = {
-  created_at: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
-  updated_at: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
+  created_at: { type: DataTypes.DATE, allowNull: false, defaultValue: literal('CURRENT_TIMESTAMP') },
+  updated_at: { type: DataTypes.DATE, allowNull: false, defaultValue: literal('CURRENT_TIMESTAMP') },
 }
 
 /** Organisations, users, memberships and the sign-in failure counter. */

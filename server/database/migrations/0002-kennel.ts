@@ -1,8 +1,9 @@
-import { DataTypes, type QueryInterface } from 'sequelize'
+import { DataTypes, literal, type QueryInterface } from 'sequelize'
 
+// A database default as well as Sequelize's own, so raw inserts (bulk loads, scripts) get timestamps too.
 const timestamps = {
-  created_at: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
-  updated_at: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
+  created_at: { type: DataTypes.DATE, allowNull: false, defaultValue: literal('CURRENT_TIMESTAMP') },
+  updated_at: { type: DataTypes.DATE, allowNull: false, defaultValue: literal('CURRENT_TIMESTAMP') },
 }
 const organisation = { type: DataTypes.INTEGER, allowNull: false, references: { model: 'organisations', key: 'id' }, onDelete: 'CASCADE' }
 const user = (allowNull: boolean) => ({ type: DataTypes.INTEGER, allowNull, references: { model: 'users', key: 'id' }, onDelete: allowNull ? 'SET NULL' : 'RESTRICT' })

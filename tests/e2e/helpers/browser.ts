@@ -3,6 +3,7 @@ import { createRequire } from 'node:module'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { chromium, type BrowserContext, type Page } from 'playwright-core'
+import { afterEach } from 'vitest'
 import { baseUrl, demoAccount } from './http'
 import type { Role } from '../../../shared/types/organisation'
 
@@ -62,6 +63,26 @@ export async function accessibilityProblems(page: Page): Promise<string[]> {
     return result.violations.map(v => `${v.id}: ${v.help} (${v.nodes.map(n => n.target.join(' ')).join(', ')})`)
   })
   return violations
+}
+
+/**
+ * One browser at a time for the tests of a file: `open` closes the one before, every test ends with
+ * its browser closed, and a failed test leaves `<name>-failure.png` to look at beside the error.
+ */
+export function browserPerTest(name: string) {
+  let current: Awaited<ReturnType<typeof openBrowser>> | undefined
+  afterEach(async (context) => {
+    if (context.task.result?.state === 'fail' && current) await screenshot(current.page, `${name}-failure`).catch(() => {})
+    await current?.close()
+    current = undefined
+  })
+  return async function open(viewport: keyof typeof VIEWPORTS = 'desktop') {
+    await current?.close()
+    current = await openBrowser(viewport)
+    current.page.setDefaultTimeout(10_000)
+    current.page.on('pageerror', error => console.error(`[page] ${error.message}`))
+    return current.page
+  }
 }
 
 export type { BrowserContext, Page }
