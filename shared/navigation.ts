@@ -6,14 +6,16 @@ export interface NavItem {
   label: string
   /** Who sees it; the server enforces the same rule for the data behind it. */
   roles: readonly Role[]
-  icon: 'home' | 'team' | 'settings' | 'organisations' | 'grid' | 'dog' | 'show' | 'profile'
+  icon: 'home' | 'team' | 'settings' | 'organisations' | 'grid' | 'dog' | 'show' | 'profile' | 'board' | 'tasks'
 }
 
 const EVERYONE: readonly Role[] = ['manager', 'handler', 'assistant']
 
 export const NAV_ITEMS: readonly NavItem[] = [
   { to: '/', label: 'Home', roles: EVERYONE, icon: 'home' },
+  { to: '/tasks', label: 'My tasks', roles: ['assistant'], icon: 'tasks' },
   { to: '/grid', label: 'Coat grid', roles: ['manager', 'handler'], icon: 'grid' },
+  { to: '/board', label: 'Week board', roles: ['manager', 'handler'], icon: 'board' },
   { to: '/dogs', label: 'Dogs', roles: EVERYONE, icon: 'dog' },
   { to: '/shows', label: 'Shows', roles: ['manager', 'handler'], icon: 'show' },
   { to: '/profiles', label: 'Coat profiles', roles: ['manager'], icon: 'profile' },
@@ -21,13 +23,13 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { to: '/settings', label: 'Organisation', roles: ['manager'], icon: 'settings' },
 ]
 
-/** The navigation a role sees, in its order; an assistant's own work comes first. */
+/** The navigation a role sees, in its order; an assistant's own tasks come first. */
 export function navigationFor(role: Role | null | undefined): NavItem[] {
   if (!role) return []
   const items = NAV_ITEMS.filter(item => item.roles.includes(role))
-  return role === 'assistant'
-    ? items.map(item => (item.to === '/' ? { ...item, label: 'My work' } : item))
-    : [...items]
+  if (role !== 'assistant') return items
+  const tasks = items.filter(item => item.to === '/tasks')
+  return [...tasks, ...items.filter(item => item.to !== '/tasks')]
 }
 
 /** Whether a role may open a page whose meta lists `roles` (no list: everyone signed in). */

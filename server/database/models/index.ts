@@ -5,6 +5,7 @@ import { CoatProfileRow } from './coatProfile'
 import { CoatWorkRow } from './coatWork'
 import { Dog } from './dog'
 import { Entry } from './entry'
+import { ImportMappingRow, ImportRecord } from './import'
 import { Membership } from './membership'
 import { Organisation } from './organisation'
 import { Show } from './show'
@@ -12,9 +13,9 @@ import { SignInFailure, SignInLock } from './signInAttempt'
 import { Task } from './task'
 import { User } from './user'
 
-export { AuditEvent, CoatProfileRow, CoatWorkRow, Dog, Entry, Membership, Organisation, Show, SignInFailure, SignInLock, Task, User }
+export { AuditEvent, CoatProfileRow, CoatWorkRow, Dog, Entry, ImportMappingRow, ImportRecord, Membership, Organisation, Show, SignInFailure, SignInLock, Task, User }
 
-const models = { Organisation, User, Membership, SignInFailure, SignInLock, CoatProfileRow, Dog, CoatWorkRow, Show, Entry, Task, AuditEvent }
+const models = { Organisation, User, Membership, SignInFailure, SignInLock, CoatProfileRow, Dog, CoatWorkRow, Show, Entry, Task, AuditEvent, ImportRecord, ImportMappingRow }
 let ready: Sequelize | undefined
 
 /** Registers every model and association once, on the process's Sequelize instance. */
@@ -32,6 +33,8 @@ export function initModels(sequelize: Sequelize = getSequelize()) {
   Entry.setup(sequelize)
   Task.setup(sequelize)
   AuditEvent.setup(sequelize)
+  ImportRecord.setup(sequelize)
+  ImportMappingRow.setup(sequelize)
 
   User.hasMany(Membership, { foreignKey: 'userId', as: 'memberships' })
   Membership.belongsTo(User, { foreignKey: 'userId', as: 'user' })
@@ -46,6 +49,9 @@ export function initModels(sequelize: Sequelize = getSequelize()) {
   Entry.belongsTo(Organisation, inOrganisation)
   Task.belongsTo(Organisation, inOrganisation)
   AuditEvent.belongsTo(Organisation, inOrganisation)
+  ImportRecord.belongsTo(Organisation, inOrganisation)
+  ImportMappingRow.belongsTo(Organisation, inOrganisation)
+  ImportRecord.belongsTo(User, { foreignKey: 'userId', as: 'user' })
   Dog.belongsTo(User, { foreignKey: 'handlerId', as: 'handler' })
   Dog.belongsTo(CoatProfileRow, { foreignKey: 'coatProfileId', as: 'coatProfile' })
   Dog.hasMany(CoatWorkRow, { foreignKey: 'dogId', as: 'work' })

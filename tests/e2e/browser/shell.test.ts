@@ -42,7 +42,7 @@ describe('the app shell in Chromium', () => {
       await page.getByTestId('menu-toggle').click()
       await screenshot(page, 'manager-menu-phone')
     }
-    expect(await navLabels(page)).toEqual(['Home', 'Coat grid', 'Dogs', 'Shows', 'Coat profiles', 'Team', 'Organisation'])
+    expect(await navLabels(page)).toEqual(['Home', 'Coat grid', 'Week board', 'Dogs', 'Shows', 'Coat profiles', 'Team', 'Organisation'])
     await page.locator('[data-nav="/team"]').click()
     await page.waitForURL(`${baseUrl}/team`)
     await expect.poll(() => page.getByTestId('team-list').locator('li').count()).toBe(5)
@@ -62,12 +62,12 @@ describe('the app shell in Chromium', () => {
     const { page } = browser
     await signInThroughForm(page, 'assistant')
     await page.waitForURL(`${baseUrl}/`)
-    await expect.poll(() => page.getByTestId('my-work-empty').isVisible()).toBe(true)
+    await expect.poll(() => page.getByTestId('tasks-now').isVisible()).toBe(true)
     await expect.poll(() => page.getByTestId('coat-cautions').textContent()).toMatch(/veterinarian/i)
     await screenshot(page, `assistant-home-${viewport}`)
     expect(await accessibilityProblems(page)).toEqual([])
     if (viewport === 'phone') await page.getByTestId('menu-toggle').click()
-    expect(await navLabels(page)).toEqual(['My work', 'Dogs'])
+    expect(await navLabels(page)).toEqual(['My tasks', 'Home', 'Dogs'])
     // The page is refused in the browser, and the data behind it by the server.
     await page.goto(`${baseUrl}/team`)
     await page.waitForURL(`${baseUrl}/`)
@@ -84,7 +84,7 @@ describe('the app shell in Chromium', () => {
     await screenshot(page, 'organisations-desktop')
     await page.locator('[data-organisation="Northfold Wire Terrier Club"]').click()
     await expect.poll(() => page.getByTestId('active-organisation').textContent()).toBe('Northfold Wire Terrier Club')
-    expect(await navLabels(page)).toEqual(['Home', 'Coat grid', 'Dogs', 'Shows', 'Team'])
+    expect(await navLabels(page)).toEqual(['Home', 'Coat grid', 'Week board', 'Dogs', 'Shows', 'Team'])
     await page.getByRole('link', { name: 'Switch organisation' }).click()
     await page.locator('[data-organisation="Larkspur Hollow Kennel"]').click()
     await expect.poll(() => page.getByTestId('active-organisation').textContent()).toBe('Larkspur Hollow Kennel')

@@ -8,8 +8,8 @@ mockNuxtImport('useCaller', () => () => ({ role: computed(() => role.value), ses
 
 describe('LayoutNav', () => {
   it.each([
-    ['manager', ['Home', 'Coat grid', 'Dogs', 'Shows', 'Coat profiles', 'Team', 'Organisation']],
-    ['assistant', ['My work', 'Dogs']],
+    ['manager', ['Home', 'Coat grid', 'Week board', 'Dogs', 'Shows', 'Coat profiles', 'Team', 'Organisation']],
+    ['assistant', ['My tasks', 'Home', 'Dogs']],
   ] as const)('renders the links a %s may use, each a real link', async (r, labels) => {
     role.value = r
     const wrapper = await mountSuspended(LayoutNav)
