@@ -2,7 +2,7 @@ import { QueryTypes, UniqueConstraintError, type Transaction } from 'sequelize'
 import type { RuleSet } from '../../shared/coat'
 import {
   buildImportPreview, IMPORT_FIELDS, ImportFileError, leftOutRows, proposeMapping, readImportFile,
-  type ImportContext, type ImportMapping, type ImportPreview, type ImportPreviewView, type ImportRequest, type NewDog, type NewShow, type ParsedCsv, type Ref,
+  type ImportContext, type ImportMapping, type ImportPreview, type ImportPreviewView, type ImportRequest, type NewDog, type NewShow, type ParsedCsv, type Ref, type RowPlan,
 } from '../../shared/import'
 import { ImportMappingRow, ImportRecord } from '../database/models'
 import type { Caller } from './auth'
@@ -102,6 +102,100 @@ function ids(refs: Map<string, number>, ref: Ref): number {
   return 'id' in ref ? ref.id : refs.get(ref.key)!
 }
 
+/** One column of a set-based write: its name, its PostgreSQL type and a value per row. */
+type Column = [name: string, type: string, values: readonly unknown[]]
+
+/**
+ * Writes many rows with one INSERT … SELECT FROM unnest: each column travels as one array
+ * parameter, so ten thousand rows are one statement rather than ten thousand.
+ */
+async function insertRows(table: string, columns: readonly Column[], transaction: Transaction): Promise<void> {
+  if (!columns[0]![2].length) return
+  await kennelSequelize().query(
+    `INSERT INTO ${table} (${columns.map(([name]) => name).join(', ')}, created_at, updated_at)
+     SELECT *, now(), now() FROM unnest(${columns.map(([, type], i) => `$${i + 1}::${type}[]`).join(', ')})`,
+    { bind: columns.map(([, , values]) => values), transaction },
+  )
+}
+
+/** `count` fresh ids from a table's own sequence, so new rows can be referred to before they are written. */
+async function reserveIds(table: string, count: number, transaction: Transaction): Promise<number[]> {
+  if (!count) return []
+  const rows = await kennelSequelize().query<{ id: number }>(
+    `SELECT nextval(pg_get_serial_sequence($1, 'id'))::int AS id FROM generate_series(1, $2)`,
+    { bind: [table, count], type: QueryTypes.SELECT, transaction },
+  )
+  return rows.map(r => r.id)
+}
+
+/** Writes a commit's plans: new dogs and shows first (their ids reserved), then entries, then changed entries. */
+async function writePlans(caller: Caller, profileId: number, plans: readonly RowPlan[], transaction: Transaction): Promise<void> {
+  const newDogs = new Map<string, NewDog>()
+  const newShows = new Map<string, NewShow>()
+  for (const plan of plans) {
+    if (plan.newDog && !newDogs.has(plan.newDog.key)) newDogs.set(plan.newDog.key, plan.newDog)
+    if (plan.newShow && !newShows.has(plan.newShow.key)) newShows.set(plan.newShow.key, plan.newShow)
+  }
+  const dogs = [...newDogs.values()]
+  const shows = [...newShows.values()]
+  const [dogIds, showIds] = await Promise.all([reserveIds('dogs', dogs.length, transaction), reserveIds('shows', shows.length, transaction)])
+  const dogRefs = new Map(dogs.map((d, i) => [d.key, dogIds[i]!]))
+  const showRefs = new Map(shows.map((s, i) => [s.key, showIds[i]!]))
+  const each = <T>(list: readonly T[], value: unknown) => list.map(() => value)
+
+  await insertRows('dogs', [
+    ['id', 'int', dogIds],
+    ['organisation_id', 'int', each(dogs, caller.organisationId)],
+    ['coat_profile_id', 'int', each(dogs, profileId)],
+    ['registered_name', 'text', dogs.map(d => d.registeredName)],
+    ['call_name', 'text', dogs.map(d => d.callName)],
+    ['registration_number', 'text', dogs.map(d => d.registrationNumber)],
+    ['breed', 'text', dogs.map(d => d.breed)],
+    ['sex', 'text', dogs.map(d => d.sex)],
+    ['date_of_birth', 'date', dogs.map(d => d.dateOfBirth)],
+    ['owner_name', 'text', dogs.map(d => d.ownerName)],
+    ['owner_email', 'text', dogs.map(d => d.ownerEmail)],
+    ['handler_id', 'int', dogs.map(d => d.handlerId)],
+  ], transaction)
+  if (shows.length) {
+    // Judges are a list per show, which unnest cannot carry as a column: each travels as JSON.
+    await kennelSequelize().query(
+      `INSERT INTO shows (id, organisation_id, name, first_day, last_day, club, place, judges, time_zone, entries_close_at, created_at, updated_at)
+       SELECT s.id, $2, s.name, s.first_day, s.last_day, s.club, s.place, ARRAY(SELECT jsonb_array_elements_text(s.judges)), $3, s.entries_close_at, now(), now()
+       FROM unnest($1::int[], $4::text[], $5::date[], $6::date[], $7::text[], $8::text[], $9::jsonb[], $10::timestamptz[])
+         AS s(id, name, first_day, last_day, club, place, judges, entries_close_at)`,
+      {
+        bind: [
+          showIds, caller.organisationId, caller.timeZone,
+          shows.map(s => s.name), shows.map(s => s.firstDay), shows.map(s => s.lastDay), shows.map(s => s.club), shows.map(s => s.place),
+          shows.map(s => JSON.stringify(s.judges)),
+          // A date alone closes at the end of that day on the organisation's clock.
+          shows.map(s => s.entriesCloseDate ? wallClockToInstant(s.entriesCloseDate, '23:59', caller.timeZone).toISOString() : null),
+        ],
+        transaction,
+      },
+    )
+  }
+  const entries = plans.filter(p => p.newEntry && p.show)
+  await insertRows('entries', [
+    ['organisation_id', 'int', each(entries, caller.organisationId)],
+    ['dog_id', 'int', entries.map(p => ids(dogRefs, p.dog))],
+    ['show_id', 'int', entries.map(p => ids(showRefs, p.show!))],
+    ['class_code', 'text', entries.map(p => p.newEntry!.classCode)],
+    ['armband', 'text', entries.map(p => p.newEntry!.armband)],
+    ['handler_id', 'int', entries.map(p => p.newEntry!.handlerId)],
+  ], transaction)
+  const updates = plans.flatMap(p => p.updateEntry ? [p.updateEntry] : [])
+  if (updates.length) {
+    await kennelSequelize().query(
+      `UPDATE entries e SET armband = u.armband, handler_id = u.handler_id, updated_at = now()
+       FROM unnest($1::int[], $2::text[], $3::int[]) AS u(id, armband, handler_id)
+       WHERE e.id = u.id AND e.organisation_id = $4`,
+      { bind: [updates.map(u => u.id), updates.map(u => u.armband), updates.map(u => u.handlerId), caller.organisationId], transaction },
+    )
+  }
+}
+
 /**
  * Validates the request again from scratch and writes every chosen row in one transaction, or
  * nothing: a chosen row with an error is a 400 that names the rows, and any failure part-way
@@ -125,42 +219,7 @@ export async function commitImport(caller: Caller, body: ImportRequest) {
           data: { rows: blocked.map(r => ({ row: r.row, problems: r.problems.filter(p => p.severity === 'error') })) },
         })
       }
-      const plans = chosen.map(r => r.plan!)
-      const newDogs = new Map<string, NewDog>()
-      const newShows = new Map<string, NewShow>()
-      for (const plan of plans) {
-        if (plan.newDog && !newDogs.has(plan.newDog.key)) newDogs.set(plan.newDog.key, plan.newDog)
-        if (plan.newShow && !newShows.has(plan.newShow.key)) newShows.set(plan.newShow.key, plan.newShow)
-      }
-      const { Dog, Show, Entry } = useModels()
-      const dogIds = new Map<string, number>()
-      const showIds = new Map<string, number>()
-      const dogList = [...newDogs.values()]
-      const madeDogs = await Dog.bulkCreate(dogList.map(({ key: _key, ...d }) => ({ ...d, organisationId: caller.organisationId, coatProfileId: profileId, colour: null, ownerPhone: null, notes: null })), { transaction, returning: ['id'] })
-      madeDogs.forEach((d, i) => dogIds.set(dogList[i]!.key, d.id))
-      const showList = [...newShows.values()]
-      const madeShows = await Show.bulkCreate(showList.map(({ key: _key, entriesCloseDate, ...s }) => ({
-        ...s,
-        organisationId: caller.organisationId,
-        timeZone: caller.timeZone,
-        // A date alone closes at the end of that day on the organisation's clock.
-        entriesCloseAt: entriesCloseDate ? wallClockToInstant(entriesCloseDate, '23:59', caller.timeZone) : null,
-        notes: null,
-      })), { transaction, returning: ['id'] })
-      madeShows.forEach((s, i) => showIds.set(showList[i]!.key, s.id))
-      const entries = plans.filter(p => p.newEntry && p.show).map(p => ({
-        organisationId: caller.organisationId,
-        dogId: ids(dogIds, p.dog),
-        showId: ids(showIds, p.show!),
-        classCode: p.newEntry!.classCode,
-        armband: p.newEntry!.armband,
-        handlerId: p.newEntry!.handlerId,
-        notes: null,
-      }))
-      await Entry.bulkCreate(entries, { transaction })
-      for (const p of plans) {
-        if (p.updateEntry) await Entry.update({ armband: p.updateEntry.armband, handlerId: p.updateEntry.handlerId }, { where: { id: p.updateEntry.id, organisationId: caller.organisationId }, transaction })
-      }
+      await writePlans(caller, profileId, chosen.map(r => r.plan!), transaction)
       const record = await ImportRecord.create({
         organisationId: caller.organisationId,
         userId: caller.userId,

@@ -16,7 +16,27 @@ function fieldMap(error: z.ZodError): Record<string, string> {
   return Object.fromEntries(error.issues.map(issue => [issue.path.join('.') || '(body)', issue.message]))
 }
 
+// PostgreSQL text cannot hold a NUL character; refuse it here, for every route, naming the field.
+function findNul(value: unknown, path: string[]): string | null {
+  if (typeof value === 'string') return value.includes('\u0000') ? (path.join('.') || '(body)') : null
+  if (Array.isArray(value)) {
+    for (let i = 0; i < value.length; i++) {
+      const hit = findNul(value[i], [...path, String(i)])
+      if (hit) return hit
+    }
+  }
+  else if (value && typeof value === 'object') {
+    for (const [key, v] of Object.entries(value)) {
+      const hit = findNul(v, [...path, key])
+      if (hit) return hit
+    }
+  }
+  return null
+}
+
 function parseWith<S extends z.ZodType>(schema: S, value: unknown): z.infer<S> {
+  const nul = findNul(value, [])
+  if (nul) throw badRequest(`${nul}: Text may not contain a NUL character`, { [nul]: 'Text may not contain a NUL character' })
   const result = schema.safeParse(value)
   if (!result.success) throw badRequest(describeIssues(result.error), fieldMap(result.error))
   return result.data

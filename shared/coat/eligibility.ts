@@ -9,17 +9,17 @@ export const RULE_SET_INFO: Record<RuleSet, RuleSetInfo> = {
   AKC: {
     key: 'AKC',
     label: 'American Kennel Club',
-    edition: 'AKC Rules Applying to Dog Shows, Chapter 3 (classes), as read from memory, not a checked dated edition. The show\'s premium list decides.',
+    edition: 'AKC Rules Applying to Dog Shows, Chapter 3 (classes); Bloomline has not checked these against a dated edition. The show\'s premium list decides.',
   },
   KC: {
     key: 'KC',
     label: 'The Kennel Club (UK)',
-    edition: 'The Kennel Club (UK) Regulations, Definitions of Classes and General Show Regulations, as read from memory, not a checked dated edition. The show schedule decides.',
+    edition: 'The Kennel Club (UK) Regulations, Definitions of Classes and General Show Regulations; Bloomline has not checked these against a dated edition. The show schedule decides.',
   },
   FCI: {
     key: 'FCI',
     label: 'Fédération Cynologique Internationale',
-    edition: 'FCI Dog Show Regulations, classes, as read from memory, not a checked dated edition. The show schedule and the national kennel club\'s rules decide.',
+    edition: 'FCI Dog Show Regulations, classes; Bloomline has not checked these against a dated edition. The show schedule and the national kennel club\'s rules decide.',
   },
 }
 

@@ -31,13 +31,30 @@ export function headerKey(header: string): string {
 }
 
 /**
+ * The delimiter that reads the file's first rows as a table: no stray quotes, at least two
+ * columns, every row as wide as the header (the widest such table wins). Papaparse's own guess
+ * misses a short file whose quoted cells hold another delimiter, as `"Ash; Vale";Open`.
+ */
+function tableDelimiter(text: string): ParsedCsv['delimiter'] | undefined {
+  let best: { delimiter: ParsedCsv['delimiter'], width: number } | undefined
+  for (const delimiter of DELIMITERS) {
+    const sample = Papa.parse<string[]>(text, { delimiter, preview: 20, skipEmptyLines: 'greedy' })
+    const width = sample.data[0]?.length ?? 0
+    const table = width >= 2 && !sample.errors.some(e => e.type === 'Quotes') && sample.data.every(cells => cells.length === width)
+    if (table && width > (best?.width ?? 0)) best = { delimiter, width }
+  }
+  return best?.delimiter
+}
+
+/**
  * Parses CSV text with papaparse (RFC 4180 quoting, doubled quotes, line breaks in quoted
  * fields), finding the delimiter among comma, semicolon and tab and skipping blank lines.
  * Refuses (ImportFileError) a header-only file, one column only, unbalanced quotes, ragged
  * rows, duplicate headers and more than 200 columns, each with one sentence.
  */
 export function parseImportCsv(text: string): ParsedCsv {
-  const result = Papa.parse<string[]>(text, { delimitersToGuess: [...DELIMITERS], skipEmptyLines: false })
+  const found = tableDelimiter(text)
+  const result = Papa.parse<string[]>(text, found ? { delimiter: found, skipEmptyLines: false } : { delimitersToGuess: [...DELIMITERS], skipEmptyLines: false })
   const quote = result.errors.find(e => e.type === 'Quotes')
   if (quote) {
     const row = (quote.row ?? 0) + 1

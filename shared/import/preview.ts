@@ -141,11 +141,16 @@ export function buildImportPreview(parsed: ParsedCsv, context: ImportContext, ch
     if (index >= 0) column.set(field, index)
   }
   const excluded = new Set(choices.exclude ?? [])
-  const fixes = new Map<string, string>((choices.fixes ?? []).map(f => [`${f.row}|${f.field}`, f.value]))
+  const fixesByRow = new Map<number, Map<ImportField, string>>()
+  for (const fix of choices.fixes ?? []) {
+    if (!fixesByRow.has(fix.row)) fixesByRow.set(fix.row, new Map())
+    fixesByRow.get(fix.row)!.set(fix.field, fix.value)
+  }
   const valuesOf = (row: ParsedCsv['rows'][number]) => {
     const values: Partial<Record<ImportField, string>> = {}
-    for (const [field, index] of column) values[field] = fixes.get(`${row.row}|${field}`) ?? row.cells[index] ?? ''
-    for (const fix of choices.fixes ?? []) if (fix.row === row.row && !column.has(fix.field)) values[fix.field] = fix.value
+    for (const [field, index] of column) values[field] = row.cells[index] ?? ''
+    // A fix wins over the cell, and may give a field the file has no column for.
+    for (const [field, value] of fixesByRow.get(row.row) ?? []) values[field] = value
     return values
   }
   const allValues = parsed.rows.map(r => ({ row: r.row, values: valuesOf(r) }))
@@ -168,6 +173,29 @@ export function buildImportPreview(parsed: ParsedCsv, context: ImportContext, ch
   const newShows = new Map<string, NewShow>()
   const entryRows = new Map<string, number>()
   const isEntryList = ENTRY_FIELDS.some(f => column.has(f))
+  // A file names a few classes and shows for thousands of rows: each answer is worked out once.
+  const classDefs = new Map(CLASS_DEFINITIONS[context.ruleSet].map(d => [d.code, d]))
+  const classCodes = new Map<string, string | undefined>()
+  const classOf = (cell: string) => {
+    if (!classCodes.has(cell)) classCodes.set(cell, resolveClassCode(context.ruleSet, cell))
+    return classCodes.get(cell)
+  }
+  const dates = new Map<string, ISODate | null>()
+  const dateIn = (cell: string) => {
+    if (!dates.has(cell)) dates.set(cell, readImportDate(cell, dayOrder))
+    return dates.get(cell)!
+  }
+  // Per dog's birth date and show day, the classes the dog is outside of (usually none).
+  const outside = new Map<string, ReadonlySet<string>>()
+  const isOutside = (born: ISODate, firstDay: ISODate, code: string) => {
+    const key = `${born}|${firstDay}`
+    let codes = outside.get(key)
+    if (!codes) {
+      codes = new Set(classEligibility(context.ruleSet, born, firstDay).filter(c => !c.eligible).map(c => c.code))
+      outside.set(key, codes)
+    }
+    return codes.has(code)
+  }
 
   const rows = allValues.map(({ row, values }): PreviewRow => {
     const problems: ImportProblem[] = []
@@ -200,7 +228,7 @@ export function buildImportPreview(parsed: ParsedCsv, context: ImportContext, ch
     const date = (field: ImportField): ISODate | undefined => {
       const value = text[field]
       if (value === undefined) return undefined
-      const read = readImportDate(value, dayOrder)
+      const read = dateIn(value)
       if (!read) {
         problem(field, 'error', `Row ${row}, ${IMPORT_FIELD_LABELS[field]}: ${quoted(value)} is not a date Bloomline can read (dates are read ${dayOrder === 'day-first' ? 'day first, as 29/05/2027' : 'month first, as 05/29/2027'}; 2027-05-29 and 29 May 2027 also work).`)
       }
@@ -287,7 +315,7 @@ export function buildImportPreview(parsed: ParsedCsv, context: ImportContext, ch
       if (firstDay && lastDay && lastDay < firstDay) problem('showLastDay', 'error', `Row ${row}, last day: ${lastDay} is before the first day, ${firstDay}.`)
       if (firstDay && closeDate && closeDate > firstDay) problem('entriesClose', 'error', `Row ${row}, entries close: ${closeDate} is after the show's first day, ${firstDay}.`)
       if (text.classCode !== undefined) {
-        classCode = resolveClassCode(context.ruleSet, text.classCode)
+        classCode = classOf(text.classCode)
         if (!classCode) {
           const labels = CLASS_DEFINITIONS[context.ruleSet].map(c => c.label).join(', ')
           problem('classCode', 'error', `Row ${row}, class: ${quoted(text.classCode)} is not a class of this organisation's rule set (${context.ruleSet}); use one of ${labels}, or a code such as ${CLASS_DEFINITIONS[context.ruleSet][0]!.code}.`)
@@ -342,9 +370,8 @@ export function buildImportPreview(parsed: ParsedCsv, context: ImportContext, ch
         if (closed?.late) problem('entriesClose', 'warning', `Row ${row}, entries close: entries for this show closed on ${closed.when}; this entry is recorded after the closing date, so check the show accepts it.`)
       }
       if (dogBorn && firstDay) {
-        const check = classEligibility(context.ruleSet, dogBorn, firstDay).find(c => c.code === classCode)
-        const def = CLASS_DEFINITIONS[context.ruleSet].find(c => c.code === classCode)!
-        if (check && !check.eligible) {
+        if (isOutside(dogBorn, firstDay, classCode)) {
+          const def = classDefs.get(classCode)!
           const young = addCalendarMonths(dogBorn, def.minMonths, MISSING_DAY_READINGS[context.ruleSet]) > firstDay
           const range = def.maxMonths === undefined ? `${ageWords(def.minMonths)} and over` : `${ageWords(def.minMonths)} to ${ageWords(def.maxMonths)}`
           problem('classCode', 'warning', `Row ${row}, class: born ${dogBorn}, the dog is too ${young ? 'young' : 'old'} for ${def.label} (${range}) on the show's first day, ${firstDay}. ${ruleSetEdition(context.ruleSet)}`)

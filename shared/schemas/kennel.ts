@@ -5,6 +5,8 @@ import { timeZoneSchema } from './organisation'
 
 /** A calendar date 'YYYY-MM-DD' that exists (2027-02-31 does not). */
 export const isoDateSchema = z.string().refine(isISODate, { message: 'Expected a date written YYYY-MM-DD that exists' })
+  // PostgreSQL's date type cannot hold year 0, and nothing in a kennel's diary is that far off.
+  .refine(v => v.slice(0, 4) >= '1900' && v.slice(0, 4) <= '2199', { message: 'Expected a date between 1900 and 2199' })
 
 const optionalText = (max: number) => z.string().trim().max(max).transform(v => v || null).nullable().optional()
 const email = z.email({ message: 'Not an e-mail address' }).max(254)

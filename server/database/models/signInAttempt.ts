@@ -1,6 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
 
-/** One failed sign-in for an e-mail address, kept in PostgreSQL so every app instance counts the same. */
+/** One sign-in try for an e-mail address (removed when one succeeds), kept in PostgreSQL so every app instance counts the same. */
 export class SignInFailure extends Model<InferAttributes<SignInFailure>, InferCreationAttributes<SignInFailure>> {
   declare id: CreationOptional<number>
   declare email: string

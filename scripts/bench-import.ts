@@ -1,0 +1,310 @@
+// `npm run bench`, third part: importing a 10,000-row entry list. On a throw-away database in the
+// private cluster it makes one organisation (a manager, two handlers), generates the list with a
+// seeded PRNG (2,500 dogs, each entered at 4 of 50 shows), serves the built app and times side by
+// side, in each round on an emptied organisation: (a) parse + preview with the engine of
+// shared/import in this process (what the organisation has read through pg, as the server reads
+// it), (b) the same preview as POST /api/imports over HTTP, (c) the commit as POST
+// /api/imports/commit over HTTP (which parses and previews again, then writes in one
+// transaction), and (d) PostgreSQL's COPY ... FROM STDIN of the same file into a scratch table,
+// streamed through pg's COPY protocol in 64 KB chunks. Prints medians and the ratio (c) / (d).
+import { spawn, type ChildProcess } from 'node:child_process'
+import { randomBytes } from 'node:crypto'
+import { createServer } from 'node:net'
+import { dirname, join } from 'node:path'
+import { performance } from 'node:perf_hooks'
+import { fileURLToPath, pathToFileURL } from 'node:url'
+import bcrypt from 'bcryptjs'
+import pg from 'pg'
+import { addDays, type ISODate } from '../shared/coat'
+import { toCsv } from '../shared/csv'
+import { buildImportPreview, IMPORT_FIELD_LABELS, IMPORT_FIELDS, proposeMapping, readImportFile, type ImportContext, type ImportField } from '../shared/import'
+import { todayInTimeZone } from '../server/utils/time'
+import { prng } from './lib/prng'
+
+const ROWS = 10_000
+const DOGS = 2_500
+const SHOWS = 50
+const SHOWS_PER_DOG = ROWS / DOGS
+const WARM_UP = 1
+const SAMPLES = 5
+const TARGET_RATIO = 5
+const TIME_ZONE = 'Europe/London'
+const COPY_CHUNK = 64 * 1024
+// Adult classes of the KC rule set (shared/coat/eligibility.ts), so no row is too young or too old.
+const CLASSES = ['Open', 'Limit', 'Post Graduate', 'Graduate', 'Novice', 'Mid Limit']
+
+interface Cluster { urlFor: (name: string) => string, startedHere: boolean, stop: () => void }
+interface SetupModule {
+  root: string
+  step: (text: string) => void
+  ensurePostgres: () => Promise<Cluster>
+  ensureDatabase: (adminUrl: string, name: string) => Promise<void>
+  dropDatabase: (adminUrl: string, name: string) => Promise<void>
+  setUpDatabase: (databaseUrl: string, options: { seed: boolean }) => void
+  buildIfStale: () => boolean
+  serverEnv: (options: { port: number, databaseUrl: string, demoMode: boolean }) => NodeJS.ProcessEnv
+}
+
+// setup.mjs is plain Node with no type declarations (it runs before node_modules exists), so it
+// is loaded by URL and given its shape here, as scripts/bench-grid.ts does.
+const here = dirname(fileURLToPath(import.meta.url))
+const setup = await import(pathToFileURL(join(here, 'lib', 'setup.mjs')).href) as SetupModule
+
+const random = prng(20261201)
+const int = (lo: number, hi: number) => lo + Math.floor(random() * (hi - lo + 1))
+const pick = <T>(list: readonly T[]): T => list[Math.floor(random() * list.length)]!
+
+const BREEDS = ['Tolland Wire Terrier', 'Harrowfield Terrier', 'Corrie Rough Terrier', 'Moorbank Terrier', 'Wire-coated Fenhound']
+const WORDS = ['Alder', 'Briar', 'Cinder', 'Dapple', 'Ember', 'Flint', 'Gale', 'Hazel', 'Ivy', 'Kestrel', 'Linnet', 'Marram', 'Nettle', 'Oriel', 'Pippin', 'Quince', 'Rowan', 'Sedge', 'Teasel', 'Wren']
+
+type Row = Record<ImportField, string>
+
+/** The entry list in the import format: the engine's own field names as headers, ISO dates, class labels. */
+function entryList(today: ISODate, handlerEmails: readonly string[]): string {
+  const shows = Array.from({ length: SHOWS }, (_, s) => {
+    const firstDay = addDays(today, 30 + s * 4)
+    return { name: `Benchfield Open Show ${s + 1}`, firstDay, lastDay: addDays(firstDay, int(0, 1)), club: `Benchfield Canine Society ${1 + (s % 7)}`, place: `${pick(WORDS)} Showground`, judge: `${pick(WORDS)} Ashby; ${pick(WORDS)} Kerr`, close: addDays(firstDay, -21) }
+  })
+  const rows: Row[] = []
+  for (let d = 0; d < DOGS; d++) {
+    const dog = {
+      registeredName: `Benchmoor ${pick(WORDS)} ${pick(WORDS)} ${d + 1}`,
+      callName: `${pick(WORDS)} ${d + 1}`,
+      registrationNumber: random() < 0.9 ? `BIM-${String(d + 1).padStart(5, '0')}` : '',
+      breed: pick(BREEDS),
+      sex: random() < 0.5 ? 'dog' : 'bitch',
+      dateOfBirth: addDays(today, -int(2 * 365, 6 * 365)),
+      ownerName: `Owner ${d + 1}`,
+      ownerEmail: `owner${d + 1}@bench.example`,
+    }
+    const chosen = new Set<number>()
+    while (chosen.size < SHOWS_PER_DOG) chosen.add(int(0, SHOWS - 1))
+    for (const s of chosen) {
+      const show = shows[s]!
+      rows.push({
+        showName: show.name, showFirstDay: show.firstDay, showLastDay: show.lastDay, club: show.club, place: show.place, judge: show.judge, entriesClose: show.close,
+        ...dog,
+        handlerEmail: random() < 0.7 ? pick(handlerEmails) : '',
+        classCode: pick(CLASSES),
+        armband: random() < 0.5 ? String(int(1, 600)) : '',
+      })
+    }
+  }
+  return toCsv(rows, IMPORT_FIELDS.map(field => ({ header: IMPORT_FIELD_LABELS[field], value: (r: Row) => r[field] })))
+}
+
+interface Generated { organisationId: number, email: string, password: string, today: ISODate, handlerEmails: string[] }
+
+async function generate(client: pg.Client): Promise<Generated> {
+  const today = todayInTimeZone(TIME_ZONE)
+  const password = randomBytes(12).toString('base64url')
+  const email = 'bench-import-manager@bench.example'
+  const handlerEmails = ['bench-import-handler-1@bench.example', 'bench-import-handler-2@bench.example']
+  const org = await client.query<{ id: number }>(`INSERT INTO organisations (name, kind, time_zone, rule_set, created_at, updated_at) VALUES ('Bench Meadow Kennel (generated)', 'kennel', $1, 'KC', now(), now()) RETURNING id`, [TIME_ZONE])
+  const organisationId = org.rows[0]!.id
+  const hash = await bcrypt.hash(password, 10)
+  const people = await client.query<{ id: number }>(
+    `INSERT INTO users (email, name, password_hash, last_organisation_id, created_at, updated_at)
+     SELECT u.email, u.name, $4, $5, now(), now()
+     FROM (VALUES (1, $1, 'Bench Manager'), (2, $2, 'Bench Handler One'), (3, $3, 'Bench Handler Two')) AS u(n, email, name)
+     ORDER BY u.n RETURNING id`, [email, handlerEmails[0], handlerEmails[1], hash, organisationId])
+  const [manager, h1, h2] = people.rows.map(r => r.id)
+  await client.query(`INSERT INTO memberships (user_id, organisation_id, role, created_at, updated_at) VALUES ($1, $4, 'manager', now(), now()), ($2, $4, 'handler', now(), now()), ($3, $4, 'handler', now(), now())`, [manager, h1, h2, organisationId])
+  // The same column shape as the file, typed where the file is (ISO dates), for COPY to fill.
+  await client.query(`CREATE TABLE bench_import_scratch (show_name text, show_first_day date, show_last_day date, club text, place text, judge text, entries_close date,
+    registered_name text, call_name text, registration_number text, breed text, sex text, date_of_birth date, owner_name text, owner_email text, handler_email text, class text, armband text)`)
+  return { organisationId, email, password, today, handlerEmails }
+}
+
+/** Empties the organisation of what an import writes, so every round imports into the same state. */
+async function reset(client: pg.Client, organisationId: number): Promise<void> {
+  for (const table of ['entries', 'dogs', 'shows', 'imports', 'import_mappings']) await client.query(`DELETE FROM ${table} WHERE organisation_id = $1`, [organisationId])
+  await client.query('TRUNCATE bench_import_scratch')
+  await client.query('VACUUM ANALYZE entries, dogs, shows, bench_import_scratch')
+}
+
+/** What the preview needs of the organisation, read with the same four queries the server's loadImportContext runs. */
+async function importContext(client: pg.Client, organisationId: number, today: ISODate): Promise<ImportContext> {
+  const q = <T extends pg.QueryResultRow>(sql: string) => client.query<T>(sql, [organisationId]).then(r => r.rows)
+  // One after another: a single pg client runs one query at a time anyway.
+  const dogs = await q<ImportContext['dogs'][number]>(`SELECT id, registered_name AS "registeredName", registration_number AS "registrationNumber",
+       to_char(date_of_birth, 'YYYY-MM-DD') AS "dateOfBirth", handler_id AS "handlerId" FROM dogs WHERE organisation_id = $1`)
+  const shows = await q<ImportContext['shows'][number]>(`SELECT id, name, to_char(first_day, 'YYYY-MM-DD') AS "firstDay",
+       to_char(entries_close_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') AS "entriesCloseAt" FROM shows WHERE organisation_id = $1`)
+  const entries = await q<ImportContext['entries'][number]>(`SELECT id, show_id AS "showId", dog_id AS "dogId", class_code AS "classCode", armband, handler_id AS "handlerId" FROM entries WHERE organisation_id = $1`)
+  const members = await q<ImportContext['members'][number]>('SELECT u.id AS "userId", u.email FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.organisation_id = $1')
+  return { ruleSet: 'KC', today, now: new Date(), dogs, shows, entries, members }
+}
+
+/**
+ * COPY ... FROM STDIN through pg's own protocol handling (pg-copy-streams is not installed): a
+ * submittable query that answers the server's CopyInResponse with the data in chunks, as a
+ * stream would, then CopyDone. Resolves with the rows COPY reports.
+ */
+function copyFrom(client: pg.Client, sql: string, data: Buffer): Promise<number> {
+  return new Promise((resolve, reject) => {
+    let rows = 0
+    let failed: Error | null = null
+    const query = {
+      submit(connection: { query: (text: string) => void }) { connection.query(sql) },
+      handleCopyInResponse(connection: { sendCopyFromChunk: (chunk: Buffer) => void, endCopyFrom: () => void }) {
+        for (let at = 0; at < data.length; at += COPY_CHUNK) connection.sendCopyFromChunk(data.subarray(at, at + COPY_CHUNK))
+        connection.endCopyFrom()
+      },
+      handleCommandComplete(msg: { text: string }) { rows = Number(msg.text.split(' ').pop()) },
+      handleError(error: Error) { failed = error },
+      handleReadyForQuery() { return failed ? reject(failed) : resolve(rows) },
+      handleRowDescription() {},
+      handleDataRow() {},
+      handleEmptyQuery() {},
+      handlePortalSuspended() {},
+      handleCopyData() {},
+    }
+    client.query(query as unknown as pg.QueryConfig)
+  })
+}
+
+function portIsFree(port: number): Promise<boolean> {
+  return new Promise((resolve) => {
+    const server = createServer()
+    server.once('error', () => resolve(false))
+    server.listen(port, '127.0.0.1', () => server.close(() => resolve(true)))
+  })
+}
+
+async function freePort(from: number): Promise<number> {
+  for (let port = from; port < from + 50; port++) if (await portIsFree(port)) return port
+  throw new Error(`No free port between ${from} and ${from + 49}`)
+}
+
+async function startApp(port: number, databaseUrl: string): Promise<ChildProcess> {
+  const entry = join(setup.root, '.output', 'server', 'index.mjs')
+  const child = spawn(process.execPath, [entry], { env: { ...setup.serverEnv({ port, databaseUrl, demoMode: false }), NODE_ENV: 'production' }, stdio: ['ignore', 'ignore', 'inherit'] })
+  const deadline = Date.now() + 30_000
+  while (Date.now() < deadline) {
+    if (child.exitCode !== null) throw new Error(`The app exited (code ${child.exitCode}) before it answered`)
+    try {
+      if ((await fetch(`http://127.0.0.1:${port}/api/health`)).ok) return child
+    }
+    catch {}
+    await new Promise(r => setTimeout(r, 200))
+  }
+  throw new Error(`The app did not answer on port ${port} within 30 s`)
+}
+
+async function stopApp(child: ChildProcess): Promise<void> {
+  if (child.exitCode !== null) return
+  const exited = new Promise(r => child.once('exit', r))
+  child.kill('SIGTERM')
+  await Promise.race([exited, new Promise(r => setTimeout(r, 5000))])
+}
+
+const median = (values: number[]) => [...values].sort((a, b) => a - b)[Math.floor((values.length - 1) / 2)]!
+const ms = (value: number) => `${value.toFixed(1)} ms`
+
+async function main(): Promise<number> {
+  const cluster = await setup.ensurePostgres()
+  const adminUrl = cluster.urlFor('postgres')
+  const name = `bloomline_bench_import_${Date.now().toString(36)}_${process.pid}`
+  const databaseUrl = cluster.urlFor(name)
+  let app: ChildProcess | undefined
+  let client: pg.Client | undefined
+  let code = 0
+  try {
+    await setup.ensureDatabase(adminUrl, name)
+    setup.setUpDatabase(databaseUrl, { seed: false })
+    client = new pg.Client({ connectionString: databaseUrl })
+    await client.connect()
+    const data = await generate(client)
+    const csv = entryList(data.today, data.handlerEmails)
+    const bytes = Buffer.from(csv, 'utf8')
+    const body = JSON.stringify({ fileName: 'bench-entries.csv', contentBase64: bytes.toString('base64') })
+    const commitBody = JSON.stringify({ fileName: 'bench-entries.csv', contentBase64: bytes.toString('base64'), commit: true })
+    setup.step(`Generated a ${ROWS.toLocaleString('en-GB')}-row entry list (${(bytes.length / 1024 / 1024).toFixed(2)} MB) in ${name}.`)
+    setup.buildIfStale()
+    const port = await freePort(3970)
+    app = await startApp(port, databaseUrl)
+    const baseUrl = `http://localhost:${port}`
+    process.env.BLOOMLINE_TEST_PORT = String(port)
+    const { CookieJar, postCredentials } = await import('../tests/e2e/helpers/http')
+    const jar = new CookieJar()
+    const signIn = await postCredentials(jar, { email: data.email, password: data.password })
+    if (signIn.status !== 200) throw new Error(`Sign-in as the bench manager failed: ${signIn.status}`)
+    const headers = { 'cookie': jar.header(), 'content-type': 'application/json' }
+
+    const times = { engine: [] as number[], preview: [] as number[], commit: [] as number[], copy: [] as number[] }
+    let counts: Record<string, number> = {}
+    let answerBytes = 0
+    setup.step(`Timing: ${WARM_UP} warm-up round, then ${SAMPLES}; each round on an emptied organisation…`)
+    for (let round = 0; round < WARM_UP + SAMPLES; round++) {
+      await reset(client, data.organisationId)
+      const keep = round >= WARM_UP
+
+      let start = performance.now()
+      const parsed = readImportFile(new Uint8Array(bytes))
+      const context = await importContext(client, data.organisationId, data.today)
+      const local = buildImportPreview(parsed, context, { mapping: proposeMapping(parsed.headers) })
+      const engine = performance.now() - start
+      if (local.counts.withErrors || local.counts.newEntries !== ROWS) throw new Error(`The engine's preview found ${local.counts.withErrors} rows with errors and ${local.counts.newEntries} new entries`)
+
+      start = performance.now()
+      const previewRes = await fetch(`${baseUrl}/api/imports`, { method: 'POST', headers, body })
+      await previewRes.text()
+      const preview = performance.now() - start
+      if (previewRes.status !== 200) throw new Error(`POST /api/imports answered ${previewRes.status}`)
+
+      start = performance.now()
+      const commitRes = await fetch(`${baseUrl}/api/imports/commit`, { method: 'POST', headers, body: commitBody })
+      const committed = await commitRes.text()
+      const commit = performance.now() - start
+      if (commitRes.status !== 201) throw new Error(`POST /api/imports/commit answered ${commitRes.status}: ${committed.slice(0, 300)}`)
+      counts = (JSON.parse(committed) as { counts: Record<string, number> }).counts
+      answerBytes = Buffer.byteLength(committed)
+      const written = await client.query<{ n: string }>('SELECT count(*) AS n FROM entries WHERE organisation_id = $1', [data.organisationId])
+      if (Number(written.rows[0]!.n) !== ROWS) throw new Error(`The commit wrote ${written.rows[0]!.n} entries, not ${ROWS}`)
+
+      start = performance.now()
+      const copied = await copyFrom(client, 'COPY bench_import_scratch FROM STDIN WITH (FORMAT csv, HEADER true)', Buffer.from(csv.replace(/^\uFEFF/, ''), 'utf8'))
+      const copy = performance.now() - start
+      if (copied !== ROWS) throw new Error(`COPY reported ${copied} rows, not ${ROWS}`)
+
+      if (keep) {
+        times.engine.push(engine)
+        times.preview.push(preview)
+        times.commit.push(commit)
+        times.copy.push(copy)
+      }
+    }
+
+    const m = { engine: median(times.engine), preview: median(times.preview), commit: median(times.commit), copy: median(times.copy) }
+    const ratio = m.commit / m.copy
+    const n = (value: number) => value.toLocaleString('en-GB')
+    const line = (label: string, a: string, b: string) => console.log(`${label.padEnd(64)}${a.padStart(11)}${b.padStart(9)}`.trimEnd())
+    console.log('')
+    console.log(`Bloomline import bench: ${n(ROWS)} entry rows (${n(DOGS)} dogs × ${SHOWS_PER_DOG} of ${SHOWS} shows, ${IMPORT_FIELDS.length} columns, ${(bytes.length / 1024 / 1024).toFixed(2)} MB), KC rule set, today ${data.today}`)
+    console.log(`commit wrote: ${n(counts.newDogs ?? 0)} dogs, ${n(counts.newShows ?? 0)} shows, ${n(counts.newEntries ?? 0)} entries, in one transaction; its JSON answer ${(answerBytes / 1024 / 1024).toFixed(2)} MB`)
+    console.log('')
+    line('', 'median', 'samples')
+    line('(a) parse + preview, shared/import engine in-process', ms(m.engine), String(times.engine.length))
+    line('(b) parse + preview, POST /api/imports over HTTP', ms(m.preview), String(times.preview.length))
+    line('(c) commit, POST /api/imports/commit over HTTP', ms(m.commit), String(times.commit.length))
+    line('(d) PostgreSQL COPY FROM STDIN, same rows, scratch table', ms(m.copy), String(times.copy.length))
+    const met = ratio <= TARGET_RATIO
+    console.log(`${'(c) / (d), medians'.padEnd(64)}${`${ratio.toFixed(2)}×`.padStart(11)}   target ≤ ${TARGET_RATIO}×: ${met ? 'met' : 'MISSED'}`)
+    console.log(`samples (ms): a ${times.engine.map(t => t.toFixed(0)).join(', ')}; b ${times.preview.map(t => t.toFixed(0)).join(', ')}; c ${times.commit.map(t => t.toFixed(0)).join(', ')}; d ${times.copy.map(t => t.toFixed(0)).join(', ')}`)
+    if (!met) code = 1
+  }
+  catch (error) {
+    console.error(`\n\x1b[31m✖\x1b[0m ${(error as Error).message}\n`)
+    code = 1
+  }
+  finally {
+    await client?.end()
+    if (app) await stopApp(app)
+    await setup.dropDatabase(adminUrl, name).catch(error => console.warn(`Could not drop ${name}: ${(error as Error).message}`))
+    if (cluster.startedHere) cluster.stop()
+  }
+  return code
+}
+
+process.exit(await main())
