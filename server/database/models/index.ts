@@ -1,6 +1,7 @@
 import type { Sequelize } from 'sequelize'
 import { getSequelize } from '../connection'
 import { AuditEvent } from './auditEvent'
+import { CalendarFeed } from './calendarFeed'
 import { CoatProfileRow } from './coatProfile'
 import { CoatWorkRow } from './coatWork'
 import { Dog } from './dog'
@@ -13,9 +14,9 @@ import { SignInFailure, SignInLock } from './signInAttempt'
 import { Task } from './task'
 import { User } from './user'
 
-export { AuditEvent, CoatProfileRow, CoatWorkRow, Dog, Entry, ImportMappingRow, ImportRecord, Membership, Organisation, Show, SignInFailure, SignInLock, Task, User }
+export { AuditEvent, CalendarFeed, CoatProfileRow, CoatWorkRow, Dog, Entry, ImportMappingRow, ImportRecord, Membership, Organisation, Show, SignInFailure, SignInLock, Task, User }
 
-const models = { Organisation, User, Membership, SignInFailure, SignInLock, CoatProfileRow, Dog, CoatWorkRow, Show, Entry, Task, AuditEvent, ImportRecord, ImportMappingRow }
+const models = { Organisation, User, Membership, SignInFailure, SignInLock, CoatProfileRow, Dog, CoatWorkRow, Show, Entry, Task, AuditEvent, ImportRecord, ImportMappingRow, CalendarFeed }
 let ready: Sequelize | undefined
 
 /** Registers every model and association once, on the process's Sequelize instance. */
@@ -35,6 +36,7 @@ export function initModels(sequelize: Sequelize = getSequelize()) {
   AuditEvent.setup(sequelize)
   ImportRecord.setup(sequelize)
   ImportMappingRow.setup(sequelize)
+  CalendarFeed.setup(sequelize)
 
   User.hasMany(Membership, { foreignKey: 'userId', as: 'memberships' })
   Membership.belongsTo(User, { foreignKey: 'userId', as: 'user' })
