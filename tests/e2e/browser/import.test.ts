@@ -2,7 +2,7 @@ import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
 import { ruleSetEdition } from '../../../shared/coat'
 import { decodeImportFile, MAX_IMPORT_BYTES } from '../../../shared/import'
-import { accessibilityProblems, browserPerTest, screenshot, signInThroughForm, type Page } from '../helpers/browser'
+import { accessibilityProblems, browserPerTest, gotoHydrated, type Page, screenshot, signInThroughForm } from '../helpers/browser'
 import { baseUrl } from '../helpers/http'
 
 const openFresh = browserPerTest('import')
@@ -106,7 +106,7 @@ describe('import wizard in Chromium', () => {
       .toEqual(['Quince', 'Tansy', 'Wren', 'Wren'])
 
     // The same file again, with the same fix: every row is already there.
-    await page.goto(`${baseUrl}/import`)
+    await gotoHydrated(page, `${baseUrl}/import`)
     await uploadAndMap(page)
     expect(await page.getByLabel('Column “Reg no”').inputValue()).toBe('registrationNumber')
     await previewAndFixRow3(page)
@@ -129,7 +129,7 @@ describe('import wizard in Chromium', () => {
 
   it('the preview reads at 360 px with no sideways scrolling', async () => {
     const page = await open('phone')
-    await page.goto(`${baseUrl}/import`)
+    await gotoHydrated(page, `${baseUrl}/import`)
     await uploadAndMap(page)
     await page.getByRole('button', { name: 'Preview' }).click()
     await expect.poll(() => step(page)).toBe('2')
@@ -143,7 +143,7 @@ describe('import wizard in Chromium', () => {
     // 05/06/2027 and 04/03/2025: no number over 12, so either order is a real date (common practice, no source).
     const csv = 'Show,Show date,Registered name,Breed,Sex,DOB,Class\r\nBriarwick Open,05/06/2027,Marrowby Sorrel Gale,Border Wirehair,Dog,04/03/2025,Open\r\n'
     const page = await open('desktop')
-    await page.goto(`${baseUrl}/import`)
+    await gotoHydrated(page, `${baseUrl}/import`)
     await page.getByTestId('file-input').setInputFiles({ name: 'both-ways.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) })
     await expect.poll(() => step(page)).toBe('1')
     const question = page.getByTestId('day-order')
@@ -163,7 +163,7 @@ describe('import wizard in Chromium', () => {
     { name: 'header-only.csv', bytes: Buffer.from('Show,Class\r\n'), sentence: 'The file has a header row but no rows below it: there is nothing to import.' },
   ])('a refused file ($name) gets the server\'s sentence and the page stays on the upload step', async ({ name, bytes, sentence }) => {
     const page = await open('desktop')
-    await page.goto(`${baseUrl}/import`)
+    await gotoHydrated(page, `${baseUrl}/import`)
     await page.getByTestId('file-input').setInputFiles({ name, mimeType: 'text/csv', buffer: bytes })
     await expect.poll(() => page.getByTestId('import-refusal').textContent()).toContain(sentence)
     expect(await step(page)).toBe('0')
@@ -171,7 +171,7 @@ describe('import wizard in Chromium', () => {
 
   it('a file over 10 MB is refused in the page with the server\'s sentence, before it is sent', async () => {
     const page = await open('desktop')
-    await page.goto(`${baseUrl}/import`)
+    await gotoHydrated(page, `${baseUrl}/import`)
     let sent = false
     page.on('request', (r) => { if (r.method() === 'POST' && r.url().includes('/api/imports')) sent = true })
     const size = MAX_IMPORT_BYTES + 1
@@ -192,7 +192,7 @@ describe('import wizard in Chromium', () => {
     const page = await open('desktop', 'handler')
     await page.goto(`${baseUrl}/shows`)
     expect(await page.getByTestId('import-link').count()).toBe(0)
-    await page.goto(`${baseUrl}/import`)
+    await gotoHydrated(page, `${baseUrl}/import`)
     await page.waitForURL(`${baseUrl}/`)
   })
 })

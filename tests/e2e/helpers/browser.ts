@@ -43,6 +43,12 @@ export async function signInThroughForm(page: Page, roleOrEmail: Role | string, 
   await page.getByRole('button', { name: 'Sign in' }).click()
 }
 
+/** Opens a page of the app and waits until Vue has hydrated it (app/plugins/hydrated.client.ts), so a click or a file pick is not lost. */
+export async function gotoHydrated(page: Page, url: string) {
+  await page.goto(url)
+  await page.waitForFunction(() => document.documentElement.dataset.hydrated === 'true')
+}
+
 /** Saves a full-page screenshot under tests/artifacts/screenshots. */
 export async function screenshot(page: Page, name: string) {
   mkdirSync(screenshotDir, { recursive: true })
