@@ -44,6 +44,9 @@ if (demoMode) {
     console.log(`    ${a.email.padEnd(26)} ${a.password.padEnd(20)} ${a.name}: ${roles}`)
   }
 }
+if (process.env.SMTP_HOST) console.log(`\n  Mail goes out through ${process.env.SMTP_HOST}:${process.env.SMTP_PORT || 587} as ${process.env.MAIL_FROM || 'Bloomline <bloomline@localhost>'}.`)
+else if (demoMode) console.log(`\n  Mail: no SMTP_HOST is set, so the app runs its own SMTP server on loopback and keeps every message.\n  Read them at http://localhost:${port}/mailbox (sign in as a manager).`)
+else console.log('\n  Mail: no SMTP_HOST is set; messages wait in the outbox until one is configured.')
 console.log('\n  Ctrl-C stops the server' + (cluster?.startedHere ? ' and the database.' : '.') + '\n')
 
 let stopping = false

@@ -34,6 +34,14 @@ try {
     BLOOMLINE_TEST_PORT: String(port),
     BLOOMLINE_CHROMIUM: chromium,
     BLOOMLINE_ADMIN_DATABASE_URL: adminUrl,
+    // Mail goes to the tests' own SMTP server on loopback (tests/e2e/helpers/smtp.ts); jobs run on
+    // one-second intervals, and scheduled runs are fired by the tests, not by the clock.
+    SMTP_HOST: '127.0.0.1',
+    SMTP_PORT: String(port + 1000),
+    SMTP_TLS: 'off',
+    MAIL_FROM: 'Bloomline <bloomline@larkspur.example>',
+    BLOOMLINE_JOBS_FAST: '1',
+    BLOOMLINE_SCHEDULE: 'off',
     NODE_ENV: 'test',
   }
   if (process.env.BLOOMLINE_SKIP_TYPECHECK !== '1') {

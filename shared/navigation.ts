@@ -6,7 +6,9 @@ export interface NavItem {
   label: string
   /** Who sees it; the server enforces the same rule for the data behind it. */
   roles: readonly Role[]
-  icon: 'home' | 'team' | 'settings' | 'organisations' | 'grid' | 'dog' | 'show' | 'profile' | 'board' | 'tasks'
+  icon: 'home' | 'team' | 'settings' | 'organisations' | 'grid' | 'dog' | 'show' | 'profile' | 'board' | 'tasks' | 'mail' | 'weekly' | 'mailbox'
+  /** Shown only while the app runs as the demo. */
+  demoOnly?: boolean
 }
 
 const EVERYONE: readonly Role[] = ['manager', 'handler', 'assistant']
@@ -20,13 +22,16 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { to: '/shows', label: 'Shows', roles: ['manager', 'handler'], icon: 'show' },
   { to: '/profiles', label: 'Coat profiles', roles: ['manager'], icon: 'profile' },
   { to: '/team', label: 'Team', roles: ['manager', 'handler'], icon: 'team' },
+  { to: '/weekly', label: 'Weekly status', roles: ['manager'], icon: 'weekly' },
+  { to: '/mail', label: 'Mail log', roles: ['manager'], icon: 'mail' },
+  { to: '/mailbox', label: 'Demo mailbox', roles: ['manager'], icon: 'mailbox', demoOnly: true },
   { to: '/settings', label: 'Organisation', roles: ['manager'], icon: 'settings' },
 ]
 
 /** The navigation a role sees, in its order; an assistant's own tasks come first. */
-export function navigationFor(role: Role | null | undefined): NavItem[] {
+export function navigationFor(role: Role | null | undefined, demoMode = false): NavItem[] {
   if (!role) return []
-  const items = NAV_ITEMS.filter(item => item.roles.includes(role))
+  const items = NAV_ITEMS.filter(item => item.roles.includes(role) && (demoMode || !item.demoOnly))
   if (role !== 'assistant') return items
   const tasks = items.filter(item => item.to === '/tasks')
   return [...tasks, ...items.filter(item => item.to !== '/tasks')]

@@ -1,8 +1,12 @@
 import { closeSequelize } from '../database/connection'
 import { initModels } from '../database/models'
+import { stopJobs } from '../utils/jobs'
 
-/** Registers the models at start-up and closes the pool when Nitro shuts down. */
+/** Registers the models at start-up; at shutdown stops the jobs, then closes the pool they use. */
 export default defineNitroPlugin((nitro) => {
   initModels()
-  nitro.hooks.hook('close', closeSequelize)
+  nitro.hooks.hook('close', async () => {
+    await stopJobs()
+    await closeSequelize()
+  })
 })

@@ -7,6 +7,7 @@ import { CoatWorkRow } from './coatWork'
 import { Dog } from './dog'
 import { Entry } from './entry'
 import { ImportMappingRow, ImportRecord } from './import'
+import { DemoMail, Invitation, MailOutbox, MailUnsubscribe, PasswordReset } from './mail'
 import { Membership } from './membership'
 import { Organisation } from './organisation'
 import { Show } from './show'
@@ -14,9 +15,9 @@ import { SignInFailure, SignInLock } from './signInAttempt'
 import { Task } from './task'
 import { User } from './user'
 
-export { AuditEvent, CalendarFeed, CoatProfileRow, CoatWorkRow, Dog, Entry, ImportMappingRow, ImportRecord, Membership, Organisation, Show, SignInFailure, SignInLock, Task, User }
+export { AuditEvent, CalendarFeed, DemoMail, Invitation, MailOutbox, MailUnsubscribe, PasswordReset, CoatProfileRow, CoatWorkRow, Dog, Entry, ImportMappingRow, ImportRecord, Membership, Organisation, Show, SignInFailure, SignInLock, Task, User }
 
-const models = { Organisation, User, Membership, SignInFailure, SignInLock, CoatProfileRow, Dog, CoatWorkRow, Show, Entry, Task, AuditEvent, ImportRecord, ImportMappingRow, CalendarFeed }
+const models = { Organisation, User, Membership, SignInFailure, SignInLock, CoatProfileRow, Dog, CoatWorkRow, Show, Entry, Task, AuditEvent, ImportRecord, ImportMappingRow, CalendarFeed, MailOutbox, Invitation, PasswordReset, MailUnsubscribe, DemoMail }
 let ready: Sequelize | undefined
 
 /** Registers every model and association once, on the process's Sequelize instance. */
@@ -37,6 +38,11 @@ export function initModels(sequelize: Sequelize = getSequelize()) {
   ImportRecord.setup(sequelize)
   ImportMappingRow.setup(sequelize)
   CalendarFeed.setup(sequelize)
+  MailOutbox.setup(sequelize)
+  Invitation.setup(sequelize)
+  PasswordReset.setup(sequelize)
+  MailUnsubscribe.setup(sequelize)
+  DemoMail.setup(sequelize)
 
   User.hasMany(Membership, { foreignKey: 'userId', as: 'memberships' })
   Membership.belongsTo(User, { foreignKey: 'userId', as: 'user' })
@@ -71,6 +77,10 @@ export function initModels(sequelize: Sequelize = getSequelize()) {
   Task.belongsTo(User, { foreignKey: 'assigneeId', as: 'assignee' })
   Task.belongsTo(User, { foreignKey: 'createdById', as: 'createdBy' })
   AuditEvent.belongsTo(User, { foreignKey: 'actorId', as: 'actor' })
+  Invitation.belongsTo(Organisation, inOrganisation)
+  Invitation.belongsTo(User, { foreignKey: 'invitedById', as: 'invitedBy' })
+  PasswordReset.belongsTo(User, { foreignKey: 'userId', as: 'user' })
+  MailUnsubscribe.belongsTo(User, { foreignKey: 'userId', as: 'user' })
 
   ready = sequelize
   return { sequelize, ...models }

@@ -5,12 +5,19 @@ import { mayOpen, navigationFor } from '../../../shared/navigation'
 // reads the team and assigns on the week board, an assistant sees their own tasks first (issue 6).
 describe('navigationFor', () => {
   it.each([
-    ['manager', ['Home', 'Coat grid', 'Week board', 'Dogs', 'Shows', 'Coat profiles', 'Team', 'Organisation']],
+    ['manager', ['Home', 'Coat grid', 'Week board', 'Dogs', 'Shows', 'Coat profiles', 'Team', 'Weekly status', 'Mail log', 'Organisation']],
     ['handler', ['Home', 'Coat grid', 'Week board', 'Dogs', 'Shows', 'Team']],
     ['assistant', ['My tasks', 'Home', 'Dogs']],
     [null, []],
   ] as const)('%s sees %j', (role, labels) => {
     expect(navigationFor(role).map(i => i.label)).toEqual(labels)
+  })
+
+  // Issue 7: the demo mailbox is a page for managers, shown only in demo mode.
+  it('adds the demo mailbox for managers in demo mode only', () => {
+    expect(navigationFor('manager', true).map(i => i.label)).toContain('Demo mailbox')
+    expect(navigationFor('manager', false).map(i => i.label)).not.toContain('Demo mailbox')
+    expect(navigationFor('handler', true).map(i => i.label)).not.toContain('Demo mailbox')
   })
 })
 

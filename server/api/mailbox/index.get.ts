@@ -1,0 +1,13 @@
+import type { DemoMailSummary } from '../../../shared/types/mail'
+
+/** The demo mailbox: every message the demo's own SMTP server received, newest first. Managers, demo mode only. */
+export default defineEventHandler(async (event): Promise<DemoMailSummary[]> => {
+  requireDemoMode()
+  await requireCaller(event, ['manager'])
+  const rows = await useModels().DemoMail.findAll({
+    attributes: ['id', 'envelopeFrom', 'envelopeTo', 'subject', 'createdAt'],
+    order: [['id', 'DESC']],
+    limit: 200,
+  })
+  return rows.map(r => ({ id: r.id, from: r.envelopeFrom, to: r.envelopeTo, subject: r.subject, receivedAt: r.createdAt.toISOString() }))
+})
