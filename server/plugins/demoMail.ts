@@ -19,7 +19,7 @@ function portIsFree(port: number): Promise<boolean> {
  * without a mail account. Mail never leaves the machine.
  */
 export default defineNitroPlugin(async (nitro) => {
-  if (!useRuntimeConfig().public.demoMode || process.env.SMTP_HOST || process.env.BLOOMLINE_JOBS === 'off') return
+  if (!useRuntimeConfig().public.demoMode || process.env.SMTP_HOST) return
   const first = Number(process.env.BLOOMLINE_DEMO_SMTP_PORT || 2525)
   let port = first
   while (port < first + 20 && !await portIsFree(port)) port++
@@ -36,6 +36,9 @@ export default defineNitroPlugin(async (nitro) => {
     logger: false,
     onData(stream, session, callback) {
       const chunks: Buffer[] = []
+      // Read now: smtp-server resets the envelope once the reply is sent.
+      const envelopeFrom = session.envelope.mailFrom ? session.envelope.mailFrom.address : null
+      const envelopeTo = session.envelope.rcptTo.map(r => r.address).join(', ')
       stream.on('data', (chunk: Buffer) => chunks.push(chunk))
       stream.on('end', async () => {
         if ((stream as unknown as { sizeExceeded?: boolean }).sizeExceeded) return callback(Object.assign(new Error('Message too large'), { responseCode: 552 }))
@@ -43,8 +46,8 @@ export default defineNitroPlugin(async (nitro) => {
           const raw = Buffer.concat(chunks).toString('utf8')
           const parsed = await simpleParser(raw)
           await useModels().DemoMail.create({
-            envelopeFrom: session.envelope.mailFrom ? session.envelope.mailFrom.address : null,
-            envelopeTo: session.envelope.rcptTo.map(r => r.address).join(', '),
+            envelopeFrom,
+            envelopeTo,
             subject: parsed.subject?.slice(0, 300) ?? null,
             raw,
           })

@@ -55,17 +55,30 @@ export function useJobs(): Promise<PgBoss | null> {
   return starting
 }
 
-/** Makes a queue if it is not there yet (pg-boss 10 needs one before send, work or schedule). */
-export async function ensureQueue(boss: PgBoss, name: string, options: Omit<PgBoss.Queue, 'name'> = {}) {
-  if (!await boss.getQueue(name)) {
-    try {
-      await boss.createQueue(name, { name, ...options })
+let queueChain: Promise<unknown> = Promise.resolve()
+
+/**
+ * Makes a queue if it is not there yet (pg-boss 10 needs one before send, work or schedule).
+ * One at a time in this process, and tried again when another instance making queues at the same
+ * moment deadlocks with us: pg-boss makes a table for each queue.
+ */
+export function ensureQueue(boss: PgBoss, name: string, options: Omit<PgBoss.Queue, 'name'> = {}): Promise<void> {
+  const made = queueChain.then(async () => {
+    for (let attempt = 1; ; attempt++) {
+      if (await boss.getQueue(name)) return
+      try {
+        await boss.createQueue(name, { name, ...options })
+        return
+      }
+      catch (error) {
+        if (await boss.getQueue(name)) return
+        if (attempt >= 5) throw error
+        await new Promise(r => setTimeout(r, 100 * attempt + Math.random() * 200))
+      }
     }
-    catch (error) {
-      // Two instances starting at once: the other one made it first.
-      if (!await boss.getQueue(name)) throw error
-    }
-  }
+  })
+  queueChain = made.catch(() => undefined)
+  return made
 }
 
 /** Sends a job when jobs run in this process; returns its id, or null when a like job already waits. */

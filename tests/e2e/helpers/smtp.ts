@@ -15,8 +15,10 @@ export interface ReceivedMail {
 export interface SmtpBehaviour {
   /** Wait this long before accepting each message's data (to catch a sender mid-send). */
   delayMs?: number
-  /** Answer every message with this temporary failure (4xx) instead of accepting it. */
+  /** Answer every message with a temporary failure (451) instead of accepting it. */
   refuse?: boolean
+  /** Refuse these recipients for good (550), as a server does for an address it does not have. */
+  rejectRecipients?: string[]
 }
 
 /**
@@ -25,6 +27,8 @@ export interface SmtpBehaviour {
  */
 export async function startSmtp(port = smtpPort, behaviour: SmtpBehaviour = {}) {
   const received: ReceivedMail[] = []
+  // Connections whose client has gone (closed, or its process killed), by session id.
+  const closed = new Set<string>()
   let server: SMTPServer | undefined
 
   function make() {
@@ -33,16 +37,28 @@ export async function startSmtp(port = smtpPort, behaviour: SmtpBehaviour = {}) 
       authOptional: true,
       disabledCommands: ['AUTH', 'STARTTLS'],
       logger: false,
+      onRcptTo(address, _session, callback) {
+        if (behaviour.rejectRecipients?.some(r => r.toLowerCase() === address.address.toLowerCase())) {
+          return callback(Object.assign(new Error('No such mailbox here'), { responseCode: 550 }))
+        }
+        callback()
+      },
+      onClose(session) {
+        closed.add(session.id)
+      },
       onData(stream, session: SMTPServerSession, callback) {
         const chunks: Buffer[] = []
+        // Read now: smtp-server resets the envelope once the reply is sent.
+        const envelopeTo = session.envelope.rcptTo.map(r => r.address)
         stream.on('data', (chunk: Buffer) => chunks.push(chunk))
         stream.on('end', async () => {
           if (behaviour.delayMs) await new Promise(r => setTimeout(r, behaviour.delayMs))
           if (behaviour.refuse) return callback(Object.assign(new Error('Try again later'), { responseCode: 451 }))
-          const raw = Buffer.concat(chunks).toString('utf8')
           // Kept only once accepted: a sender that died before the reply has not delivered.
+          if (closed.has(session.id)) return callback(new Error('The client has gone'))
+          const raw = Buffer.concat(chunks).toString('utf8')
           callback()
-          received.push({ envelopeTo: session.envelope.rcptTo.map(r => r.address), raw, parsed: await simpleParser(raw) })
+          received.push({ envelopeTo, raw, parsed: await simpleParser(raw) })
         })
       },
     })
@@ -76,7 +92,7 @@ export async function startSmtp(port = smtpPort, behaviour: SmtpBehaviour = {}) 
     async waitFor(predicate: (mail: ReceivedMail[]) => boolean, timeoutMs = 30_000) {
       const deadline = Date.now() + timeoutMs
       while (!predicate(received)) {
-        if (Date.now() > deadline) throw new Error(`Mail did not arrive in ${timeoutMs} ms; ${received.length} message(s) so far.`)
+        if (Date.now() > deadline) throw new Error(`Mail did not arrive in ${timeoutMs} ms; ${received.length} message(s) so far, to: ${received.map(m => m.envelopeTo.join(' ')).join(', ') || 'none'}`)
         await new Promise(r => setTimeout(r, 100))
       }
       return received
