@@ -54,6 +54,9 @@ describe('the mail log in Chromium', () => {
     await expect.poll(() => row.textContent()).toContain('550')
     expect(await accessibilityProblems(page)).toEqual([])
     await screenshot(page, 'mail-log-failed-1280')
+    await gotoHydrated(page, `${baseUrl}/`)
+    await expect.poll(() => page.getByTestId('home-mail-failed').isVisible()).toBe(true)
+    await gotoHydrated(page, `${baseUrl}/mail`)
 
     smtp.behaviour.rejectRecipients = []
     await row.getByRole('button', { name: 'Try again' }).click()
