@@ -58,21 +58,32 @@ export async function requireUser(event: H3Event) {
 
 async function loadCaller(event: H3Event): Promise<Caller> {
   const { token, user } = await requireUser(event)
-  const { Membership, Organisation } = useModels()
   if (!token.organisationId) {
     throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: 'Choose an organisation to work in first.' })
   }
-  const membership = await Membership.findOne({
-    where: { userId: user.id, organisationId: token.organisationId },
-    include: [{ model: Organisation, as: 'organisation' }],
-  })
-  if (!membership?.organisation) {
+  const caller = await callerFor(user.id, token.organisationId)
+  if (!caller) {
     throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: 'You are no longer a member of that organisation. Choose another one.' })
   }
+  return caller
+}
+
+/**
+ * A person as a caller in an organisation, read fresh from the database, or null when they are not
+ * (or no longer) a member: for work done on someone's behalf without a request of theirs, such as
+ * a calendar feed or a weekly status, scoped exactly as their own requests would be.
+ */
+export async function callerFor(userId: number, organisationId: number): Promise<Caller | null> {
+  const { Membership, Organisation, User } = useModels()
+  const membership = await Membership.findOne({
+    where: { userId, organisationId },
+    include: [{ model: Organisation, as: 'organisation' }, { model: User, as: 'user' }],
+  })
+  if (!membership?.organisation || !membership.user) return null
   return {
-    userId: user.id,
-    name: user.name,
-    email: user.email,
+    userId: membership.user.id,
+    name: membership.user.name,
+    email: membership.user.email,
     organisationId: membership.organisation.id,
     organisationName: membership.organisation.name,
     timeZone: membership.organisation.timeZone,

@@ -1,7 +1,7 @@
 import type { H3Event } from 'h3'
 import { UniqueConstraintError, type Sequelize, type Transaction } from 'sequelize'
 import type { z } from 'zod'
-import { CLASS_DEFINITIONS, DEFAULT_PROFILE, type ISODate, type RuleSet } from '../../shared/coat'
+import { CLASS_DEFINITIONS, DEFAULT_PROFILE, planWorkBack, type ISODate, type RuleSet } from '../../shared/coat'
 import { idParamSchema } from '../../shared/schemas/organisation'
 import type { DogSummary, ProfileView } from '../../shared/types/kennel'
 import type { CoatProfileRow } from '../database/models'
@@ -231,6 +231,23 @@ export async function checkWorkFields(
 /** The strip and layer work of one dog, not deleted. */
 export async function loadDogPulls(dogId: number) {
   return (await loadPullWork(kennelSequelize(), { sql: 'SELECT CAST(:dogId AS int)', replacements: { dogId } })).get(dogId) ?? []
+}
+
+/**
+ * A dog the caller may see, its profile, and its work-back plan for every show it has a live entry
+ * in from today, computed now from the work already done (a pull dated after today, from a clock
+ * change, waits for its day). One reading for the plan page and the plan's .ics download.
+ */
+export async function loadDogPlan(caller: Caller, id: number) {
+  const today = callerToday(caller)
+  const dog = await requireDogRecord(caller, id, today)
+  const [profile, pulls, shows] = await Promise.all([
+    findProfile(caller, dog.coatProfileId),
+    loadDogPulls(id),
+    loadLiveShows(kennelSequelize(), { sql: 'SELECT CAST(:dogId AS int)', replacements: { dogId: id } }, today).then(m => m.get(id) ?? []),
+  ])
+  const plan = planWorkBack(profile!, pulls.filter(w => w.date <= today), shows.map(s => s.firstDay), today)
+  return { today, dog, profile: profile!, shows, plan }
 }
 
 /**

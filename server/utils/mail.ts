@@ -128,6 +128,22 @@ export async function queueMail(input: QueueMailInput): Promise<{ id: number, qu
   return { id, queued: true }
 }
 
+/**
+ * Withdraws messages not yet sent: when a link they carry stops working (an invitation resent or
+ * revoked, a newer password reset), so no dead link is delivered later. A send already under way
+ * may still finish (and is then logged as sent); a failed one is not tried again. Matches the kind and organisation, and the recipient or a period-key prefix.
+ */
+export async function cancelWaitingMail(match: { organisationId: number | null, kind: MailKind, recipientEmail?: string, periodKeyPrefix?: string }): Promise<number> {
+  const [, result] = await getSequelize().query(
+    `UPDATE mail_outbox SET status = 'cancelled', updated_at = now()
+     WHERE status IN ('pending', 'sending') AND kind = $1 AND COALESCE(organisation_id, 0) = COALESCE($2::int, 0)
+       AND ($3::text IS NULL OR lower(recipient_email) = lower($3))
+       AND ($4::text IS NULL OR starts_with(period_key, $4))`,
+    { bind: [match.kind, match.organisationId, match.recipientEmail ?? null, match.periodKeyPrefix ?? null] },
+  ) as [unknown, { rowCount?: number }]
+  return result?.rowCount ?? 0
+}
+
 /** Asks a worker to send an outbox message, now or after `delaySeconds`; a failure to ask is left to the sweep. */
 export async function askToSend(id: number, delaySeconds = 0) {
   try {
@@ -200,10 +216,12 @@ export async function deliverOutbox(id: number): Promise<'sent' | 'retry' | 'fai
     const message = (error as Error).message.slice(0, 1000)
     const last = isPermanent(error) || row.attempts >= tuning.mailMaxAttempts
     const delay = retryDelaySeconds(row.attempts)
-    await sequelize.query(
-      `UPDATE mail_outbox SET status = $2, last_error = $3, locked_until = NULL, next_attempt_at = now() + make_interval(secs => $4), updated_at = now() WHERE id = $1`,
+    // Only a row still ours: one withdrawn meanwhile stays withdrawn.
+    const [, result] = await sequelize.query(
+      `UPDATE mail_outbox SET status = $2, last_error = $3, locked_until = NULL, next_attempt_at = now() + make_interval(secs => $4), updated_at = now() WHERE id = $1 AND status = 'sending'`,
       { bind: [id, last ? 'failed' : 'pending', message, delay] },
-    )
+    ) as [unknown, { rowCount?: number }]
+    if (!result?.rowCount) return 'skipped'
     if (last) return 'failed'
     await askToSend(id, delay)
     return 'retry'

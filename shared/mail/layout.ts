@@ -58,6 +58,6 @@ export function mailLayout(options: { title: string, preheader?: string, bodyHtm
 <h1 style="margin:0 0 14px 0;font-family:${FONT};font-size:24px;line-height:30px;font-weight:normal;color:${INK};">${escapeHtml(options.title)}</h1>
 ${options.bodyHtml}
 </td></tr>
-<tr><td style="padding:14px 24px 20px 24px;border-top:1px solid #e9e0cc;">${options.footerHtml ?? ''}${mailSmallPrint('Sent by Bloomline, which keeps coat work, readiness and show plans for your kennel.')}</td></tr>
+<tr><td style="padding:14px 24px 20px 24px;border-top:1px solid #e9e0cc;">${options.footerHtml ?? ''}${mailSmallPrint('Sent by Bloomline, which keeps coat work, readiness and show plans for kennels and breed clubs.')}</td></tr>
 </table></td></tr></table></body></html>`
 }

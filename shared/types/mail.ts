@@ -2,7 +2,7 @@
 export type MailKind = 'invitation' | 'password_reset' | 'weekly_status'
 
 /** Where a message stands in the outbox. */
-export type OutboxStatus = 'pending' | 'sending' | 'sent' | 'failed'
+export type OutboxStatus = 'pending' | 'sending' | 'sent' | 'failed' | 'cancelled'
 
 export const MAIL_KIND_LABELS: Record<MailKind, string> = {
   invitation: 'Invitation',
@@ -15,6 +15,7 @@ export const OUTBOX_STATUS_LABELS: Record<OutboxStatus, string> = {
   sending: 'Sending',
   sent: 'Sent',
   failed: 'Failed',
+  cancelled: 'Not sent: no longer wanted',
 }
 
 /** One line of the delivery log, as managers see it. */

@@ -39,7 +39,7 @@ export async function up({ context: qi }: { context: QueryInterface }) {
     ...timestamps,
   })
   await qi.sequelize.query(`ALTER TABLE mail_outbox
-    ADD CONSTRAINT mail_outbox_status_check CHECK (status IN ('pending', 'sending', 'sent', 'failed')),
+    ADD CONSTRAINT mail_outbox_status_check CHECK (status IN ('pending', 'sending', 'sent', 'failed', 'cancelled')),
     ADD CONSTRAINT mail_outbox_kind_check CHECK (kind IN ('invitation', 'password_reset', 'weekly_status'))`)
   // The key that makes a retry, a restart or a second instance harmless: one message per
   // organisation, recipient, kind and period, however often it is queued.

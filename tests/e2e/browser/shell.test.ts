@@ -42,7 +42,8 @@ describe('the app shell in Chromium', () => {
       await page.getByTestId('menu-toggle').click()
       await screenshot(page, 'manager-menu-phone')
     }
-    expect(await navLabels(page)).toEqual(['Home', 'Coat grid', 'Week board', 'Dogs', 'Shows', 'Coat profiles', 'Team', 'Organisation'])
+    // The test app runs as the demo, so the demo mailbox is there too.
+    expect(await navLabels(page)).toEqual(['Home', 'Coat grid', 'Week board', 'Dogs', 'Shows', 'Coat profiles', 'Team', 'Weekly status', 'Mail log', 'Demo mailbox', 'Organisation'])
     await page.locator('[data-nav="/team"]').click()
     await page.waitForURL(`${baseUrl}/team`)
     await expect.poll(() => page.getByTestId('team-list').locator('li').count()).toBe(5)

@@ -8,7 +8,8 @@ mockNuxtImport('useCaller', () => () => ({ role: computed(() => role.value), ses
 
 describe('LayoutNav', () => {
   it.each([
-    ['manager', ['Home', 'Coat grid', 'Week board', 'Dogs', 'Shows', 'Coat profiles', 'Team', 'Organisation']],
+    // The demo mailbox shows only in demo mode, which `npm test` turns on (NUXT_PUBLIC_DEMO_MODE).
+    ['manager', ['Home', 'Coat grid', 'Week board', 'Dogs', 'Shows', 'Coat profiles', 'Team', 'Weekly status', 'Mail log', ...(process.env.NUXT_PUBLIC_DEMO_MODE === 'true' ? ['Demo mailbox'] : []), 'Organisation']],
     ['assistant', ['My tasks', 'Home', 'Dogs']],
   ] as const)('renders the links a %s may use, each a real link', async (r, labels) => {
     role.value = r
