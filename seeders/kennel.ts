@@ -481,8 +481,17 @@ async function insertStory(story: KennelStory, people: DemoPeople, now: Date, tr
     entriesCloseAt: wallClockToInstant(entriesClose.date, entriesClose.time, s.timeZone),
   })), { transaction, returning: true })
   const showIds = new Map(story.shows.map((s, i) => [s.key, shows[i]!.id]))
+  const closesAt = new Map(story.shows.map((s, i) => [s.key, shows[i]!.entriesCloseAt]))
+  // Entered ten days before entries closed (or now, if that is earlier): a kennel enters in time,
+  // and only an entry made late should carry the "entered after entries closed" warning.
+  const enteredAt = (show: string) => {
+    const close = closesAt.get(show)
+    return new Date(Math.min(now.getTime(), close ? close.getTime() - 10 * 86_400_000 : now.getTime()))
+  }
   await Entry.bulkCreate(story.entries.map(e => ({
     organisationId,
+    createdAt: enteredAt(e.show),
+    updatedAt: enteredAt(e.show),
     dogId: idOf(dogIds, e.dog, 'the dog'),
     showId: idOf(showIds, e.show, 'the show'),
     classCode: e.classCode,

@@ -24,7 +24,9 @@ export interface BloomlineToken {
 
 /** The decoded session token, or a 401. */
 export async function requireSignedIn(event: H3Event): Promise<Required<BloomlineToken>> {
-  const token = await getToken({ event }) as BloomlineToken | null
+  // The secret is passed, not left to nuxt-auth: it learns it only once its /api/auth route has
+  // loaded in this process, so a fresh instance behind a load balancer would refuse good sessions.
+  const token = await getToken({ event, secret: useRuntimeConfig().authSecret }) as BloomlineToken | null
   if (!token?.userId) throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'Sign in to continue.' })
   return { userId: token.userId, organisationId: token.organisationId ?? null, sessionVersion: token.sessionVersion ?? 0 }
 }

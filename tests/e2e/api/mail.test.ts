@@ -191,6 +191,10 @@ describe('the demo mailbox', () => {
       const subject = `Demo mailbox check ${run}`
       await nodemailer.createTransport({ host: '127.0.0.1', port: smtpPort, secure: false, ignoreTLS: true })
         .sendMail({ from: 'Bloomline <bloomline@larkspur.example>', to: 'pip@larkspur.example', subject, text: 'Plain words', html: '<p>HTML words</p>' })
+      // A session signed by the first instance works on this fresh one from its very first request
+      // (every instance shares NUXT_AUTH_SECRET; nothing of sign-in need have run here yet).
+      const fromFirst = await signedIn('manager')
+      expect((await fetch(`${demo.url}/api/mailbox`, { headers: { cookie: fromFirst.header() } })).status).toBe(200)
       const manager = await signedInAt(demo.url, 'manager')
       const list = await fetch(`${demo.url}/api/mailbox`, { headers: { cookie: manager.header() } })
       expect(list.status).toBe(200)
