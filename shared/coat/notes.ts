@@ -25,7 +25,23 @@ function named(regions: readonly RegionProfile[]): string {
   return text
 }
 
-const showWords = (shows: readonly ISODate[]): string => `the show${shows.length > 1 ? 's' : ''} on ${listWords(shows)}`
+const WEEKDAYS = ['Sun', 'Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat']
+const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec']
+const dayWordsCache = new Map<string, string>()
+
+/** A calendar date as people read it in a note: `2026-12-07` is "Mon 7 Dec 2026". */
+export function dayWords(date: ISODate): string {
+  let text = dayWordsCache.get(date)
+  if (text === undefined) {
+    const [y, m, d] = date.split('-').map(Number) as [number, number, number]
+    text = `${WEEKDAYS[new Date(Date.UTC(y, m - 1, d)).getUTCDay()]} ${d} ${MONTHS[m - 1]} ${y}`
+    if (dayWordsCache.size >= 4096) dayWordsCache.clear()
+    dayWordsCache.set(date, text)
+  }
+  return text
+}
+
+const showWords = (shows: readonly ISODate[]): string => `the show${shows.length > 1 ? 's' : ''} on ${listWords(shows.map(dayWords))}`
 
 export interface LastDay {
   date: ISODate
@@ -39,26 +55,26 @@ export function layerNote(date: ISODate, regions: readonly RegionProfile[], show
   if (slowest) {
     parts.push(slowest.date === date
       ? `This is the last day to touch ${named(slowest.regions)} for ${shows.length > 1 ? 'these shows' : 'this show'}.`
-      : `The last day to touch ${named(slowest.regions)} is ${slowest.date}.`)
+      : `The last day to touch ${named(slowest.regions)} is ${dayWords(slowest.date)}.`)
   }
-  if (rest.length) parts.push(`For ${rest.map((d) => `${named(d.regions)} it is ${d.date}`).join('; for ')}.`)
+  if (rest.length) parts.push(`For ${rest.map((d) => `${named(d.regions)} it is ${dayWords(d.date)}`).join('; for ')}.`)
   if (noBath) parts.push('No bath first: this work cannot wait a day for one, so work the coat as it is.')
   return parts.join(' ')
 }
 
 /** Why a bath step is there, with the last day for the slowest region of the session it prepares. */
 export function bathNote(sessionDate: ISODate, slowest: LastDay): string {
-  return `Bath the dog so the coat stands up for the layer on ${sessionDate}: work it within a day or two of a bath. The last day to touch ${named(slowest.regions)} is ${slowest.date}.`
+  return `Bath the dog so the coat stands up for the layer on ${dayWords(sessionDate)}: work it within a day or two of a bath. The last day to touch ${named(slowest.regions)} is ${dayWords(slowest.date)}.`
 }
 
 /** Why a roll step is there. */
 export function rollNote(regions: readonly RegionProfile[], show: ISODate): string {
-  return `Roll ${named(regions)}, taking only the longest hairs: the coat there passes its best before the show on ${show}, and rolling about every three weeks keeps it tight until the next coat comes through.`
+  return `Roll ${named(regions)}, taking only the longest hairs: the coat there passes its best before the show on ${dayWords(show)}, and rolling about every three weeks keeps it tight until the next coat comes through.`
 }
 
 /** Plain words for a (show, region) pair the plan cannot bring into bloom. */
 export function unreachableNote(profile: CoatProfile, item: Unreachable): string {
   const region = profile.regions.find((r) => r.key === item.region)
   const label = region ? lower(region.label) : item.region
-  return `The show on ${item.showDate} is too close for the ${label} to be in bloom: the last day to take a layer off it was ${item.lastUsefulDate}.`
+  return `The show on ${dayWords(item.showDate)} is too close for the ${label} to be in bloom: the last day to take a layer off it was ${dayWords(item.lastUsefulDate)}.`
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { addDays, assessDog, DEFAULT_PROFILE, planWorkBack, unreachableNote } from '../../../../shared/coat'
+import { addDays, assessDog, dayWords, DEFAULT_PROFILE, planWorkBack, unreachableNote } from '../../../../shared/coat'
 import type { CoatWork, PlanStep, WorkBackPlan } from '../../../../shared/coat'
 import { planViolations } from './planInvariants'
 
@@ -28,11 +28,11 @@ describe('planWorkBack, one show', () => {
       [at(-56), 'layer', ['ears'], [SHOW]],
     ])
     expect(result.unreachable).toEqual([])
-    expect(result.steps[1]!.note).toContain(`The last day to touch the sides is ${at(-70)}.`)
-    expect(result.steps[1]!.note).toContain(`For the topline it is ${at(-63)}`)
-    expect(result.steps[0]!.note).toContain(`for the layer on ${at(-73)}`)
-    expect(result.steps[0]!.note).toContain(`The last day to touch the sides is ${at(-70)}.`)
-    expect(result.steps[2]!.note).toContain(`The last day to touch the ears is ${at(-49)}.`)
+    expect(result.steps[1]!.note).toContain(`The last day to touch the sides is ${dayWords(at(-70))}.`)
+    expect(result.steps[1]!.note).toContain(`For the topline it is ${dayWords(at(-63))}`)
+    expect(result.steps[0]!.note).toContain(`for the layer on ${dayWords(at(-73))}`)
+    expect(result.steps[0]!.note).toContain(`The last day to touch the sides is ${dayWords(at(-70))}.`)
+    expect(result.steps[2]!.note).toContain(`The last day to touch the ears is ${dayWords(at(-49))}.`)
   })
 
   it('70 days out, the sides\' last day: the session is today, with no bath before it, and says so', () => {
@@ -53,7 +53,7 @@ describe('planWorkBack, one show', () => {
     ])
     expect(result.steps.filter((s) => s.kind === 'layer').flatMap((s) => s.regions).sort()).toEqual(ALL.filter((k) => k !== 'topline' && k !== 'sides').sort())
     expect(unreachableNote(DEFAULT_PROFILE, result.unreachable[1]!)).toBe(
-      `The show on ${SHOW} is too close for the sides to be in bloom: the last day to take a layer off it was ${at(-70)}.`,
+      `The show on ${dayWords(SHOW)} is too close for the sides to be in bloom: the last day to take a layer off it was ${dayWords(at(-70))}.`,
     )
   })
 
@@ -80,7 +80,7 @@ describe('planWorkBack, several shows', () => {
     const toplineSides = result.steps.filter((s) => s.kind === 'layer' && s.regions.includes('sides'))
     expect(toplineSides).toHaveLength(1)
     expect(toplineSides[0]).toMatchObject({ regions: ['topline', 'sides'], forShows: [SHOW, later] })
-    expect(toplineSides[0]!.note).toContain(`for the shows on ${SHOW} and ${later}`)
+    expect(toplineSides[0]!.note).toContain(`for the shows on ${dayWords(SHOW)} and ${dayWords(later)}`)
   })
 
   it('a later show outside the bloom gets a further layer, and roll passes keep the coat tight between', () => {
@@ -126,5 +126,13 @@ describe('planWorkBack errors name the bad value', () => {
     [[], [SHOW], 'today', 'today'],
   ])('work %j, shows %j, today %s', (work, shows, today, named) => {
     expect(() => planWorkBack(DEFAULT_PROFILE, work as CoatWork[], shows, today)).toThrow(named)
+  })
+})
+
+describe('dayWords', () => {
+  // ISO 8601 week dates (DESIGN.md §6): 2026-12-31 is 2026-W53-4, a Thursday; 2027-01-04 is 2027-W01-1, a Monday;
+  // 2028 is a leap year whose 29 February is a Tuesday (from memory).
+  it.each([['2026-12-31', 'Thu 31 Dec 2026'], ['2027-01-04', 'Mon 4 Jan 2027'], ['2028-02-29', 'Tue 29 Feb 2028']])('%s reads as %s', (date, words) => {
+    expect(dayWords(date)).toBe(words)
   })
 })

@@ -1,4 +1,4 @@
-import { addDays, assessDog, assessRegion } from '../../../../shared/coat'
+import { addDays, assessDog, assessRegion, dayWords } from '../../../../shared/coat'
 import type { CoatProfile, CoatWork, ISODate, RegionProfile, WorkBackPlan } from '../../../../shared/coat'
 
 const lead = (r: RegionProfile): number => r.sproutDays + r.growDays
@@ -62,7 +62,7 @@ export function planViolations(profile: CoatProfile, work: CoatWork[], shows: IS
     }
     const slowest = Math.max(...step.regions.map((k) => lead(region.get(k)!)))
     const lastDay = addDays(step.forShows[0]!, -slowest)
-    if (!step.note.includes(lastDay === step.date ? 'This is the last day to touch' : `The last day to touch`) || (lastDay !== step.date && !step.note.includes(lastDay))) {
+    if (!step.note.includes(lastDay === step.date ? 'This is the last day to touch' : `The last day to touch`) || (lastDay !== step.date && !step.note.includes(dayWords(lastDay)))) {
       bad.push(`layer on ${step.date} does not name the last day ${lastDay}: ${step.note}`)
     }
   }
