@@ -4,9 +4,11 @@
 // side, in each round on an emptied organisation: (a) parse + preview with the engine of
 // shared/import in this process (what the organisation has read through pg, as the server reads
 // it), (b) the same preview as POST /api/imports over HTTP, (c) the commit as POST
-// /api/imports/commit over HTTP (which parses and previews again, then writes in one
+// /api/imports/commit over HTTP (which parses and checks every row again, then writes in one
 // transaction), and (d) PostgreSQL's COPY ... FROM STDIN of the same file into a scratch table,
-// streamed through pg's COPY protocol in 64 KB chunks. Prints medians and the ratio (c) / (d).
+// streamed through pg's COPY protocol in 64 KB chunks. Prints medians, the ratio (c) / (d) and
+// (c) by step, from the commit's own Server-Timing header. BLOOMLINE_BENCH_PROFILE=<folder>
+// also writes the server's CPU profile there.
 import { spawn, type ChildProcess } from 'node:child_process'
 import { randomBytes } from 'node:crypto'
 import { createServer } from 'node:net'
@@ -17,7 +19,7 @@ import bcrypt from 'bcryptjs'
 import pg from 'pg'
 import { addDays, type ISODate } from '../shared/coat'
 import { toCsv } from '../shared/csv'
-import { buildImportPreview, IMPORT_FIELD_LABELS, IMPORT_FIELDS, proposeMapping, readImportFile, type ImportContext, type ImportField } from '../shared/import'
+import { buildImportPreview, IMPORT_FIELD_LABELS, IMPORT_FIELDS, proposeMapping, readImportFile, type ImportContext, type ImportField, type Ref, type RowPlan } from '../shared/import'
 import { todayInTimeZone } from '../server/utils/time'
 import { prng } from './lib/prng'
 
@@ -128,7 +130,7 @@ async function importContext(client: pg.Client, organisationId: number, today: I
   const q = <T extends pg.QueryResultRow>(sql: string) => client.query<T>(sql, [organisationId]).then(r => r.rows)
   // One after another: a single pg client runs one query at a time anyway.
   const dogs = await q<ImportContext['dogs'][number]>(`SELECT id, registered_name AS "registeredName", registration_number AS "registrationNumber",
-       to_char(date_of_birth, 'YYYY-MM-DD') AS "dateOfBirth", handler_id AS "handlerId" FROM dogs WHERE organisation_id = $1`)
+       to_char(date_of_birth, 'YYYY-MM-DD') AS "dateOfBirth", handler_id AS "handlerId", call_name AS "callName" FROM dogs WHERE organisation_id = $1`)
   const shows = await q<ImportContext['shows'][number]>(`SELECT id, name, to_char(first_day, 'YYYY-MM-DD') AS "firstDay",
        to_char(entries_close_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') AS "entriesCloseAt" FROM shows WHERE organisation_id = $1`)
   const entries = await q<ImportContext['entries'][number]>(`SELECT id, show_id AS "showId", dog_id AS "dogId", class_code AS "classCode", armband, handler_id AS "handlerId" FROM entries WHERE organisation_id = $1`)
@@ -164,6 +166,44 @@ function copyFrom(client: pg.Client, sql: string, data: Buffer): Promise<number>
   })
 }
 
+/**
+ * (e) The same rows written straight into dogs, shows and entries, with their keys, indexes and
+ * foreign keys, in one transaction and with no checking at all: three INSERT ... SELECT FROM
+ * unnest statements after one id reservation. What any commit of these rows costs the database
+ * alone, to read (c) against.
+ */
+async function insertFloor(client: pg.Client, organisationId: number, plans: readonly RowPlan[]): Promise<number> {
+  const dogs = plans.flatMap(p => p.newDog ? [p.newDog] : [])
+  const shows = plans.flatMap(p => p.newShow ? [p.newShow] : [])
+  const entries = plans.filter(p => p.newEntry && p.show)
+  const start = performance.now()
+  await client.query('BEGIN')
+  const profile = await client.query<{ id: number }>('SELECT id FROM coat_profiles WHERE organisation_id = $1 AND is_default', [organisationId])
+  const ids = await client.query<{ dogs: number[], shows: number[] }>(`SELECT
+    (SELECT array_agg(nextval('dogs_id_seq'::regclass)::int) FROM generate_series(1, $1)) AS dogs,
+    (SELECT array_agg(nextval('shows_id_seq'::regclass)::int) FROM generate_series(1, $2)) AS shows`, [dogs.length, shows.length])
+  const dogIds = new Map(dogs.map((d, i) => [d.key, ids.rows[0]!.dogs[i]!]))
+  const showIds = new Map(shows.map((sh, i) => [sh.key, ids.rows[0]!.shows[i]!]))
+  await client.query(`INSERT INTO dogs (id, organisation_id, coat_profile_id, registered_name, call_name, registration_number, breed, sex, date_of_birth, owner_name, owner_email, handler_id, created_at, updated_at)
+    SELECT u.*, now(), now() FROM unnest($1::int[], $2::int[], $3::int[], $4::text[], $5::text[], $6::text[], $7::text[], $8::text[], $9::date[], $10::text[], $11::text[], $12::int[]) AS u`,
+  [[...dogIds.values()], dogs.map(() => organisationId), dogs.map(() => profile.rows[0]!.id), dogs.map(d => d.registeredName), dogs.map(d => d.callName), dogs.map(d => d.registrationNumber),
+    dogs.map(d => d.breed), dogs.map(d => d.sex), dogs.map(d => d.dateOfBirth), dogs.map(d => d.ownerName), dogs.map(d => d.ownerEmail), dogs.map(d => d.handlerId)])
+  await client.query(`INSERT INTO shows (id, organisation_id, name, first_day, last_day, club, place, judges, time_zone, entries_close_at, created_at, updated_at)
+    SELECT u.id, $2, u.name, u.first_day, u.last_day, u.club, u.place, ARRAY(SELECT jsonb_array_elements_text(u.judges)), $3::text, (u.close + time '23:59') AT TIME ZONE $3::text, now(), now()
+    FROM unnest($1::int[], $4::text[], $5::date[], $6::date[], $7::text[], $8::text[], $9::jsonb[], $10::date[]) AS u(id, name, first_day, last_day, club, place, judges, close)`,
+  [[...showIds.values()], organisationId, TIME_ZONE, shows.map(sh => sh.name), shows.map(sh => sh.firstDay), shows.map(sh => sh.lastDay), shows.map(sh => sh.club), shows.map(sh => sh.place),
+    shows.map(sh => JSON.stringify(sh.judges)), shows.map(sh => sh.entriesCloseDate)])
+  const id = (made: Map<string, number>, ref: Ref) => 'id' in ref ? ref.id : made.get(ref.key)!
+  await client.query(`INSERT INTO entries (organisation_id, dog_id, show_id, class_code, armband, handler_id, created_at, updated_at)
+    SELECT $1, u.*, now(), now() FROM unnest($2::int[], $3::int[], $4::text[], $5::text[], $6::int[]) AS u`,
+  [organisationId, entries.map(p => id(dogIds, p.dog)), entries.map(p => id(showIds, p.show!)), entries.map(p => p.newEntry!.classCode), entries.map(p => p.newEntry!.armband), entries.map(p => p.newEntry!.handlerId)])
+  await client.query('COMMIT')
+  const time = performance.now() - start
+  const written = await client.query<{ n: string }>('SELECT count(*) AS n FROM entries WHERE organisation_id = $1', [organisationId])
+  if (Number(written.rows[0]!.n) !== ROWS) throw new Error(`The straight INSERT wrote ${written.rows[0]!.n} entries, not ${ROWS}`)
+  return time
+}
+
 function portIsFree(port: number): Promise<boolean> {
   return new Promise((resolve) => {
     const server = createServer()
@@ -179,7 +219,9 @@ async function freePort(from: number): Promise<number> {
 
 async function startApp(port: number, databaseUrl: string): Promise<ChildProcess> {
   const entry = join(setup.root, '.output', 'server', 'index.mjs')
-  const child = spawn(process.execPath, [entry], { env: { ...setup.serverEnv({ port, databaseUrl, demoMode: false }), NODE_ENV: 'production' }, stdio: ['ignore', 'ignore', 'inherit'] })
+  // BLOOMLINE_BENCH_PROFILE=<folder> writes the server's CPU profile there when it stops, to see where a commit's time goes.
+  const profile = process.env.BLOOMLINE_BENCH_PROFILE ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BLOOMLINE_BENCH_PROFILE}`] : []
+  const child = spawn(process.execPath, [...profile, entry], { env: { ...setup.serverEnv({ port, databaseUrl, demoMode: false }), NODE_ENV: 'production' }, stdio: ['ignore', 'ignore', 'inherit'] })
   const deadline = Date.now() + 30_000
   while (Date.now() < deadline) {
     if (child.exitCode !== null) throw new Error(`The app exited (code ${child.exitCode}) before it answered`)
@@ -232,7 +274,9 @@ async function main(): Promise<number> {
     if (signIn.status !== 200) throw new Error(`Sign-in as the bench manager failed: ${signIn.status}`)
     const headers = { 'cookie': jar.header(), 'content-type': 'application/json' }
 
-    const times = { engine: [] as number[], preview: [] as number[], commit: [] as number[], copy: [] as number[] }
+    const times = { engine: [] as number[], preview: [] as number[], commit: [] as number[], copy: [] as number[], floor: [] as number[] }
+    // The commit's own Server-Timing steps, to show where its time goes.
+    const steps = new Map<string, number[]>()
     let counts: Record<string, number> = {}
     let answerBytes = 0
     setup.step(`Timing: ${WARM_UP} warm-up round, then ${SAMPLES}; each round on an emptied organisation…`)
@@ -259,6 +303,7 @@ async function main(): Promise<number> {
       const commit = performance.now() - start
       if (commitRes.status !== 201) throw new Error(`POST /api/imports/commit answered ${commitRes.status}: ${committed.slice(0, 300)}`)
       counts = (JSON.parse(committed) as { counts: Record<string, number> }).counts
+      const serverSteps = (commitRes.headers.get('server-timing') ?? '').split(',').map(p => p.trim().match(/^([\w.-]+);dur=([\d.]+)$/)).filter(m => m !== null)
       answerBytes = Buffer.byteLength(committed)
       const written = await client.query<{ n: string }>('SELECT count(*) AS n FROM entries WHERE organisation_id = $1', [data.organisationId])
       if (Number(written.rows[0]!.n) !== ROWS) throw new Error(`The commit wrote ${written.rows[0]!.n} entries, not ${ROWS}`)
@@ -268,15 +313,24 @@ async function main(): Promise<number> {
       const copy = performance.now() - start
       if (copied !== ROWS) throw new Error(`COPY reported ${copied} rows, not ${ROWS}`)
 
+      // The organisation emptied again (untimed), so (e) writes into the state (c) wrote into.
+      await reset(client, data.organisationId)
+      const floor = await insertFloor(client, data.organisationId, local.rows.map(r => r.plan!))
+
       if (keep) {
+        times.floor.push(floor)
         times.engine.push(engine)
         times.preview.push(preview)
         times.commit.push(commit)
         times.copy.push(copy)
+        for (const [, name, dur] of serverSteps) steps.set(name!, [...(steps.get(name!) ?? []), Number(dur)])
+        // A name with a dot is a part of a step, given on its own; the steps alone add up to the handler's time.
+        const server = serverSteps.filter(m => !m[1]!.includes('.')).reduce((sum, m) => sum + Number(m[2]), 0)
+        steps.set('(outside the handler: HTTP, JSON of the answer)', [...(steps.get('(outside the handler: HTTP, JSON of the answer)') ?? []), commit - server])
       }
     }
 
-    const m = { engine: median(times.engine), preview: median(times.preview), commit: median(times.commit), copy: median(times.copy) }
+    const m = { engine: median(times.engine), preview: median(times.preview), commit: median(times.commit), copy: median(times.copy), floor: median(times.floor) }
     const ratio = m.commit / m.copy
     const n = (value: number) => value.toLocaleString('en-GB')
     const line = (label: string, a: string, b: string) => console.log(`${label.padEnd(64)}${a.padStart(11)}${b.padStart(9)}`.trimEnd())
@@ -289,9 +343,12 @@ async function main(): Promise<number> {
     line('(b) parse + preview, POST /api/imports over HTTP', ms(m.preview), String(times.preview.length))
     line('(c) commit, POST /api/imports/commit over HTTP', ms(m.commit), String(times.commit.length))
     line('(d) PostgreSQL COPY FROM STDIN, same rows, scratch table', ms(m.copy), String(times.copy.length))
+    line('(e) the same rows INSERTed straight into dogs/shows/entries', ms(m.floor), String(times.floor.length))
     const met = ratio <= TARGET_RATIO
     console.log(`${'(c) / (d), medians'.padEnd(64)}${`${ratio.toFixed(2)}×`.padStart(11)}   target ≤ ${TARGET_RATIO}×: ${met ? 'met' : 'MISSED'}`)
-    console.log(`samples (ms): a ${times.engine.map(t => t.toFixed(0)).join(', ')}; b ${times.preview.map(t => t.toFixed(0)).join(', ')}; c ${times.commit.map(t => t.toFixed(0)).join(', ')}; d ${times.copy.map(t => t.toFixed(0)).join(', ')}`)
+    console.log(`${'(e) / (d): the database alone, keys, indexes and foreign keys'.padEnd(64)}${`${(m.floor / m.copy).toFixed(2)}×`.padStart(11)}   (c) − (e): ${ms(m.commit - m.floor)}`)
+    if (steps.size) console.log(`(c) by step, medians (Server-Timing): ${[...steps].map(([step, values]) => `${step} ${median(values).toFixed(1)}`).join(', ')}`)
+    console.log(`samples (ms): a ${times.engine.map(t => t.toFixed(0)).join(', ')}; b ${times.preview.map(t => t.toFixed(0)).join(', ')}; c ${times.commit.map(t => t.toFixed(0)).join(', ')}; d ${times.copy.map(t => t.toFixed(0)).join(', ')}; e ${times.floor.map(t => t.toFixed(0)).join(', ')}`)
     if (!met) code = 1
   }
   catch (error) {

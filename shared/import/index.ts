@@ -42,4 +42,4 @@ export function leftOutCsv(headers: readonly string[], rows: readonly LeftOutRow
     { header: 'Reasons', value: r => r.reasons.join(' ') },
   ], { bom: true })
 }
-export type { ImportCommitView, ImportHistoryView, ImportPreviewView } from './views'
+export type { ImportCommitView, ImportedDog, ImportedShow, ImportHistoryView, ImportPreviewView } from './views'

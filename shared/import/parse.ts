@@ -35,15 +35,33 @@ export function headerKey(header: string): string {
  * columns, every row as wide as the header (the widest such table wins). Papaparse's own guess
  * misses a short file whose quoted cells hold another delimiter, as `"Ash; Vale";Open`.
  */
-function tableDelimiter(text: string): ParsedCsv['delimiter'] | undefined {
+function tableDelimiter(text: string, newline: Newline): ParsedCsv['delimiter'] | undefined {
   let best: { delimiter: ParsedCsv['delimiter'], width: number } | undefined
   for (const delimiter of DELIMITERS) {
-    const sample = Papa.parse<string[]>(text, { delimiter, preview: 20, skipEmptyLines: 'greedy' })
+    const sample = Papa.parse<string[]>(text, { delimiter, newline, preview: 20, skipEmptyLines: 'greedy' })
     const width = sample.data[0]?.length ?? 0
     const table = width >= 2 && !sample.errors.some(e => e.type === 'Quotes') && sample.data.every(cells => cells.length === width)
     if (table && width > (best?.width ?? 0)) best = { delimiter, width }
   }
   return best?.delimiter
+}
+
+type Newline = '\r\n' | '\n' | '\r'
+
+/**
+ * The line ending papaparse 5.7 guesses for a text when given none (its guessLineEndings, in
+ * papaparse.js): over the first megabyte with quoted parts taken out, "\n" if there is no "\r"
+ * or a "\n" comes first, else "\r\n" when at least half the "\r" are followed by "\n", else
+ * "\r". Worked out once and handed to each of the four parses, which would each guess again.
+ */
+function lineEnding(text: string): Newline {
+  const head = text.substring(0, 1024 * 1024).replace(/"([^]*?)"/gm, '')
+  const r = head.split('\r')
+  const firstN = head.indexOf('\n')
+  if (r.length === 1 || (firstN >= 0 && firstN < r[0]!.length)) return '\n'
+  let withN = 0
+  for (const part of r) if (part[0] === '\n') withN++
+  return withN >= r.length / 2 ? '\r\n' : '\r'
 }
 
 /**
@@ -53,8 +71,9 @@ function tableDelimiter(text: string): ParsedCsv['delimiter'] | undefined {
  * rows, duplicate headers and more than 200 columns, each with one sentence.
  */
 export function parseImportCsv(text: string): ParsedCsv {
-  const found = tableDelimiter(text)
-  const result = Papa.parse<string[]>(text, found ? { delimiter: found, skipEmptyLines: false } : { delimitersToGuess: [...DELIMITERS], skipEmptyLines: false })
+  const newline = lineEnding(text)
+  const found = tableDelimiter(text, newline)
+  const result = Papa.parse<string[]>(text, found ? { delimiter: found, newline, skipEmptyLines: false } : { delimitersToGuess: [...DELIMITERS], newline, skipEmptyLines: false })
   const quote = result.errors.find(e => e.type === 'Quotes')
   if (quote) {
     const row = (quote.row ?? 0) + 1
@@ -63,8 +82,11 @@ export function parseImportCsv(text: string): ParsedCsv {
       : `Row ${row} has a double quote (") inside a field that is not written as two double quotes (""), so its columns cannot be told apart.`)
   }
   const delimiter = (DELIMITERS as readonly string[]).includes(result.meta.delimiter) ? result.meta.delimiter as ParsedCsv['delimiter'] : ','
-  const records = result.data.map((cells, i) => ({ row: i + 1, cells }))
-    .filter(r => r.cells.some(c => c.trim() !== ''))
+  const records: CsvRow[] = []
+  for (let i = 0; i < result.data.length; i++) {
+    const cells = result.data[i]!
+    if (cells.some(c => c.trim() !== '')) records.push({ row: i + 1, cells })
+  }
   const header = records.shift()
   if (!header) throw new ImportFileError('The file is empty: there is nothing to import.')
   if (header.cells.length > MAX_IMPORT_COLUMNS) {
@@ -84,10 +106,11 @@ export function parseImportCsv(text: string): ParsedCsv {
   }
   if (!records.length) throw new ImportFileError('The file has a header row but no rows below it: there is nothing to import.')
   // A spreadsheet may add empty cells at the end of a row; only cells with content make a row ragged.
-  const ragged = records.filter(r => r.cells.length < headers.length || r.cells.slice(headers.length).some(c => c.trim() !== ''))
+  const ragged = records.filter(r => r.cells.length !== headers.length && (r.cells.length < headers.length || r.cells.slice(headers.length).some(c => c.trim() !== '')))
   if (ragged.length) {
     const first = ragged[0]!
     throw new ImportFileError(`Row${ragged.length > 1 ? 's' : ''} ${listRows(ragged.map(r => r.row))} ha${ragged.length > 1 ? 've' : 's'} a different number of columns from the header (${headers.length}; row ${first.row} has ${first.cells.length}), read with ${DELIMITER_NAMES[delimiter]} between columns; check for a missing or extra ${delimiter === '\t' ? 'tab' : `"${delimiter}"`} or an unquoted one inside a value.`)
   }
-  return { delimiter, headers, rows: records.map(r => ({ row: r.row, cells: r.cells.slice(0, headers.length) })) }
+  // Only a row with empty cells past the header's width needs cutting.
+  return { delimiter, headers, rows: records.map(r => r.cells.length === headers.length ? r : { row: r.row, cells: r.cells.slice(0, headers.length) }) }
 }

@@ -1,4 +1,4 @@
-import { addCalendarMonths, classEligibility, CLASS_DEFINITIONS, MISSING_DAY_READINGS, ruleSetEdition, type ISODate, type RuleSet } from '../coat'
+import { addCalendarMonths, classAgeWindow, CLASS_DEFINITIONS, MISSING_DAY_READINGS, ruleSetEdition, type ClassAgeWindow, type ISODate, type RuleSet } from '../coat'
 import { startsLikeFormula } from '../csv'
 import { resolveClassCode } from './classes'
 import { detectDayOrder, readImportDate, type DayOrder } from './dates'
@@ -6,7 +6,7 @@ import { IMPORT_FIELD_LABELS, IMPORT_FIELDS, type ImportField, type ImportMappin
 import type { ParsedCsv } from './parse'
 
 /** A dog already in the organisation, as the matcher needs it. */
-export interface KnownDog { id: number, registeredName: string, registrationNumber: string | null, dateOfBirth: ISODate, handlerId: number | null }
+export interface KnownDog { id: number, registeredName: string, registrationNumber: string | null, dateOfBirth: ISODate, handlerId: number | null, callName?: string }
 /** A show already in the organisation; `entriesCloseAt` is an ISO instant. */
 export interface KnownShow { id: number, name: string, firstDay: ISODate, entriesCloseAt: string | null }
 /** An entry already made. */
@@ -63,6 +63,8 @@ export interface RowPlan {
   newShow?: NewShow
   newEntry?: { classCode: string, armband: string | null, handlerId: number | null }
   updateEntry?: { id: number, armband: string | null, handlerId: number | null }
+  /** An entry already there that the row leaves as it is. */
+  unchangedEntry?: { id: number }
 }
 
 /** One row of the preview. */
@@ -104,6 +106,8 @@ const MAX_LENGTH: Partial<Record<ImportField, number>> = {
   showName: 160, club: 160, place: 200, judge: 120, registeredName: 160, callName: 60,
   registrationNumber: 40, breed: 80, ownerName: 120, ownerEmail: 254, handlerEmail: 254, armband: 20, classCode: 60,
 }
+// By the field's place in IMPORT_FIELDS, read in the loop over every cell of every row.
+const MAX_LENGTHS = IMPORT_FIELDS.map(f => MAX_LENGTH[f])
 const DATE_FIELDS: ImportField[] = ['showFirstDay', 'showLastDay', 'entriesClose', 'dateOfBirth']
 const ENTRY_FIELDS: ImportField[] = ['showName', 'showFirstDay', 'classCode']
 // A common practical check (common practice, no source): one @, no spaces, a dot in the domain.
@@ -111,8 +115,17 @@ const EMAIL = /^[^\s@]+@[^\s@.]+(\.[^\s@.]+)+$/
 const SEX: Record<string, 'dog' | 'bitch'> = { dog: 'dog', d: 'dog', male: 'dog', m: 'dog', bitch: 'bitch', b: 'bitch', female: 'bitch', f: 'bitch' }
 
 const lower = (text: string) => text.trim().toLowerCase()
-const showKey = (name: string, firstDay: string) => `${lower(name)}|${firstDay}`
-const refKey = (ref: Ref) => 'id' in ref ? `#${ref.id}` : ref.key
+
+// Lookups by two or three parts use maps of maps rather than joined strings: a file of ten
+// thousand rows would otherwise build and hash tens of thousands of throw-away keys.
+function getIn<A, B, V>(map: Map<A, Map<B, V>>, a: A, b: B): V | undefined {
+  return map.get(a)?.get(b)
+}
+function setIn<A, B, V>(map: Map<A, Map<B, V>>, a: A, b: B, value: V): void {
+  let inner = map.get(a)
+  if (!inner) map.set(a, inner = new Map())
+  inner.set(b, value)
+}
 
 function quoted(value: string): string {
   return `"${value.length > 40 ? `${value.slice(0, 40)}…` : value}"`
@@ -133,6 +146,24 @@ function ageWords(months: number): string {
  * request that skips the preview meets the same checks.
  */
 export function buildImportPreview(parsed: ParsedCsv, context: ImportContext, choices: ImportChoices): ImportPreview {
+  return startImportPreview(parsed, context, choices).finish()
+}
+
+/** A preview read a part at a time: the same rows and counts as buildImportPreview, in order. */
+export interface ImportPreviewRun {
+  dayOrder: DayOrder
+  dayOrderFromFile: boolean
+  /** The next rows, at most `count` of them; an empty list once every row is read. */
+  next: (count: number) => PreviewRow[]
+  /** Reads the rows not read yet and gives the whole preview. */
+  finish: () => ImportPreview
+}
+
+/**
+ * Starts a preview that is read a part at a time, so the server can write one part while it
+ * checks the next; each part's answer depends only on the rows before it, as in the whole.
+ */
+export function startImportPreview(parsed: ParsedCsv, context: ImportContext, choices: ImportChoices): ImportPreviewRun {
   const { mapping } = choices
   const column = new Map<ImportField, number>()
   for (const field of IMPORT_FIELDS) {
@@ -140,6 +171,9 @@ export function buildImportPreview(parsed: ParsedCsv, context: ImportContext, ch
     const index = header === undefined ? -1 : parsed.headers.indexOf(header)
     if (index >= 0) column.set(field, index)
   }
+  // As plain lists: iterating the Map would make a pair per field per row.
+  const columnFields = [...column.keys()]
+  const columnIndexes = [...column.values()]
   const excluded = new Set(choices.exclude ?? [])
   const fixesByRow = new Map<number, Map<ImportField, string>>()
   for (const fix of choices.fixes ?? []) {
@@ -148,30 +182,59 @@ export function buildImportPreview(parsed: ParsedCsv, context: ImportContext, ch
   }
   const valuesOf = (row: ParsedCsv['rows'][number]) => {
     const values: Partial<Record<ImportField, string>> = {}
-    for (const [field, index] of column) values[field] = row.cells[index] ?? ''
+    const cells = row.cells
+    for (let i = 0; i < columnFields.length; i++) values[columnFields[i]!] = cells[columnIndexes[i]!] ?? ''
     // A fix wins over the cell, and may give a field the file has no column for.
-    for (const [field, value] of fixesByRow.get(row.row) ?? []) values[field] = value
+    const fixed = fixesByRow.size ? fixesByRow.get(row.row) : undefined
+    if (fixed) for (const [field, value] of fixed) values[field] = value
     return values
   }
   const allValues = parsed.rows.map(r => ({ row: r.row, values: valuesOf(r) }))
 
-  const detected = detectDayOrder(allValues.flatMap(r => DATE_FIELDS.map(f => r.values[f] ?? '')))
+  // The order depends only on which values occur, so each distinct one is looked at once.
+  const dateCells = new Set<string>()
+  for (const { values } of allValues) {
+    for (const field of DATE_FIELDS) dateCells.add(values[field] ?? '')
+  }
+  const detected = detectDayOrder(dateCells)
   const dayOrder: DayOrder = choices.dayOrder ?? detected.order ?? (context.ruleSet === 'AKC' ? 'month-first' : 'day-first')
 
+  // By lower-case registration number; by lower-case registered name, then date of birth.
   const dogsByNumber = new Map<string, KnownDog>()
-  const dogsByName = new Map<string, KnownDog>()
+  const dogsByName = new Map<string, Map<ISODate, KnownDog>>()
   for (const dog of context.dogs) {
     if (dog.registrationNumber) dogsByNumber.set(lower(dog.registrationNumber), dog)
-    dogsByName.set(`${lower(dog.registeredName)}|${dog.dateOfBirth}`, dog)
+    setIn(dogsByName, lower(dog.registeredName), dog.dateOfBirth, dog)
   }
-  const showsByKey = new Map(context.shows.map(s => [showKey(s.name, s.firstDay), s]))
-  const entriesByKey = new Map(context.entries.map(e => [`#${e.showId}|#${e.dogId}|${e.classCode}`, e]))
+  // By lower-case name, then first day.
+  const showsByName = new Map<string, Map<ISODate, KnownShow>>()
+  for (const show of context.shows) setIn(showsByName, lower(show.name), show.firstDay, show)
+  // By show id, then dog id, then class.
+  const entriesByIds = new Map<number, Map<number, Map<string, KnownEntry>>>()
+  for (const entry of context.entries) {
+    let byDog = entriesByIds.get(entry.showId)
+    if (!byDog) entriesByIds.set(entry.showId, byDog = new Map())
+    setIn(byDog, entry.dogId, entry.classCode, entry)
+  }
   const members = new Map(context.members.map(m => [lower(m.email), m.userId]))
   const newDogsByNumber = new Map<string, NewDog>()
-  const newDogsByName = new Map<string, NewDog>()
-  const newDogsByKey = new Map<string, NewDog>()
-  const newShows = new Map<string, NewShow>()
-  const entryRows = new Map<string, number>()
+  const newDogsByName = new Map<string, Map<ISODate, NewDog>>()
+  const newShowsByName = new Map<string, Map<ISODate, NewShow>>()
+  // One reference object per dog and show, shared by its rows' plans, so the rows already
+  // entered can be found by reference: show, then dog, then class, to the row that entered it.
+  const refs = new Map<KnownDog | NewDog | KnownShow | NewShow, Ref>()
+  const idRef = (thing: KnownDog | KnownShow) => {
+    let ref = refs.get(thing)
+    if (!ref) refs.set(thing, ref = { id: thing.id })
+    return ref
+  }
+  const keyRef = (thing: NewDog | NewShow) => {
+    let ref = refs.get(thing)
+    if (!ref) refs.set(thing, ref = { key: thing.key })
+    return ref
+  }
+  const entryRows = new Map<Ref, Map<Ref, Map<string, number>>>()
+  const enteredRow = (show: Ref, dog: Ref, code: string) => entryRows.get(show)?.get(dog)?.get(code)
   const isEntryList = ENTRY_FIELDS.some(f => column.has(f))
   // A file names a few classes and shows for thousands of rows: each answer is worked out once.
   const classDefs = new Map(CLASS_DEFINITIONS[context.ruleSet].map(d => [d.code, d]))
@@ -185,59 +248,70 @@ export function buildImportPreview(parsed: ParsedCsv, context: ImportContext, ch
     if (!dates.has(cell)) dates.set(cell, readImportDate(cell, dayOrder))
     return dates.get(cell)!
   }
-  // Per dog's birth date and show day, the classes the dog is outside of (usually none).
-  const outside = new Map<string, ReadonlySet<string>>()
+  // Per birth date and class, the show days the dog is in by age: a dog entered in the same class
+  // at many shows is worked out once, and each show is then two comparisons of ISO dates.
+  const windows = new Map<ISODate, Map<string, ClassAgeWindow>>()
   const isOutside = (born: ISODate, firstDay: ISODate, code: string) => {
-    const key = `${born}|${firstDay}`
-    let codes = outside.get(key)
-    if (!codes) {
-      codes = new Set(classEligibility(context.ruleSet, born, firstDay).filter(c => !c.eligible).map(c => c.code))
-      outside.set(key, codes)
+    let window = getIn(windows, born, code)
+    if (!window) {
+      window = classAgeWindow(context.ruleSet, code, born)
+      setIn(windows, born, code, window)
     }
-    return codes.has(code)
+    return firstDay < window.from || (window.through !== null && firstDay > window.through)
   }
 
-  const rows = allValues.map(({ row, values }): PreviewRow => {
-    const problems: ImportProblem[] = []
-    const problem = (field: ImportField | null, severity: ImportProblem['severity'], message: string) => {
-      problems.push({ row, field, column: field ? mapping[field] ?? IMPORT_FIELD_LABELS[field] : null, severity, message })
+  // The row being read and its trimmed values: the helpers below are made once per file rather
+  // than once per row, and `text` is one object cleared for each row.
+  let row = 0
+  let problems: ImportProblem[] = []
+  const text: Partial<Record<ImportField, string>> = {}
+  const problem = (field: ImportField | null, severity: ImportProblem['severity'], message: string) => {
+    problems.push({ row, field, column: field ? mapping[field] ?? IMPORT_FIELD_LABELS[field] : null, severity, message })
+  }
+  const required = (field: ImportField, why: string) => {
+    if (text[field] === undefined && !problems.some(p => p.field === field)) {
+      problem(field, 'error', `Row ${row}, ${IMPORT_FIELD_LABELS[field]}: missing; ${why}.`)
     }
-    const text: Partial<Record<ImportField, string>> = {}
-    for (const field of IMPORT_FIELDS) {
+  }
+  const date = (field: ImportField): ISODate | undefined => {
+    const value = text[field]
+    if (value === undefined) return undefined
+    const read = dateIn(value)
+    if (!read) {
+      problem(field, 'error', `Row ${row}, ${IMPORT_FIELD_LABELS[field]}: ${quoted(value)} is not a date Bloomline can read (dates are read ${dayOrder === 'day-first' ? 'day first, as 29/05/2027' : 'month first, as 05/29/2027'}; 2027-05-29 and 29 May 2027 also work).`)
+    }
+    return read ?? undefined
+  }
+  const email = (field: ImportField) => {
+    const value = text[field]
+    if (value === undefined) return undefined
+    if (EMAIL.test(value)) return value
+    problem(field, 'error', `Row ${row}, ${IMPORT_FIELD_LABELS[field]}: ${quoted(value)} is not an e-mail address.`)
+    return undefined
+  }
+
+  const readRow = (line: { row: number, values: Partial<Record<ImportField, string>> }): PreviewRow => {
+    const values = line.values
+    row = line.row
+    problems = []
+    for (let f = 0; f < IMPORT_FIELDS.length; f++) {
+      const field = IMPORT_FIELDS[f]!
+      text[field] = undefined
       const raw = values[field]
       if (raw === undefined) continue
       const value = raw.trim()
       // A lone dash is a spreadsheet's "nothing here", not a formula.
       if (value === '' || value === '-' || value === '—') continue
-      if (startsLikeFormula(raw) || startsLikeFormula(value)) {
+      if (startsLikeFormula(raw) || (value !== raw && startsLikeFormula(value))) {
         problem(field, 'error', `Row ${row}, ${IMPORT_FIELD_LABELS[field]}: ${quoted(value)} starts like a spreadsheet formula (=, +, -, @); Bloomline does not import formulas, so type the value itself.`)
         continue
       }
-      const max = MAX_LENGTH[field]
+      const max = MAX_LENGTHS[f]
       if (max && value.length > max) {
         problem(field, 'error', `Row ${row}, ${IMPORT_FIELD_LABELS[field]}: ${value.length} characters is too long; at most ${max}.`)
         continue
       }
       text[field] = value
-    }
-    const required = (field: ImportField, why: string) => {
-      if (text[field] === undefined && !problems.some(p => p.field === field)) {
-        problem(field, 'error', `Row ${row}, ${IMPORT_FIELD_LABELS[field]}: missing; ${why}.`)
-      }
-    }
-    const date = (field: ImportField): ISODate | undefined => {
-      const value = text[field]
-      if (value === undefined) return undefined
-      const read = dateIn(value)
-      if (!read) {
-        problem(field, 'error', `Row ${row}, ${IMPORT_FIELD_LABELS[field]}: ${quoted(value)} is not a date Bloomline can read (dates are read ${dayOrder === 'day-first' ? 'day first, as 29/05/2027' : 'month first, as 05/29/2027'}; 2027-05-29 and 29 May 2027 also work).`)
-      }
-      return read ?? undefined
-    }
-    const email = (field: ImportField) => {
-      const value = text[field]
-      if (value !== undefined && !EMAIL.test(value)) problem(field, 'error', `Row ${row}, ${IMPORT_FIELD_LABELS[field]}: ${quoted(value)} is not an e-mail address.`)
-      return value !== undefined && EMAIL.test(value) ? value : undefined
     }
 
     required('registeredName', 'every row needs the dog\'s registered name')
@@ -259,22 +333,24 @@ export function buildImportPreview(parsed: ParsedCsv, context: ImportContext, ch
     // Dogs match by registration number, then by registered name and date of birth.
     let dog: Ref | undefined
     let newDog: NewDog | undefined
+    let inFileDog: NewDog | undefined
     const number = text.registrationNumber
-    const nameKey = text.registeredName && dateOfBirth ? `${lower(text.registeredName)}|${dateOfBirth}` : undefined
-    const known = (number ? dogsByNumber.get(lower(number)) : undefined) ?? (nameKey ? dogsByName.get(nameKey) : undefined)
+    const numberKey = number ? lower(number) : undefined
+    const nameKey = text.registeredName && dateOfBirth ? lower(text.registeredName) : undefined
+    const known = (numberKey ? dogsByNumber.get(numberKey) : undefined) ?? (nameKey ? getIn(dogsByName, nameKey, dateOfBirth!) : undefined)
     if (known && number && known.registrationNumber && lower(known.registrationNumber) !== lower(number)) {
       problem('registrationNumber', 'warning', `Row ${row}, registration number: the dog with this name and date of birth is registered as ${known.registrationNumber} in Bloomline; that one is kept.`)
     }
     if (known) {
-      dog = { id: known.id }
+      dog = idRef(known)
       if (dateOfBirth && known.dateOfBirth !== dateOfBirth) {
         problem('dateOfBirth', 'warning', `Row ${row}, date of birth: the file says ${dateOfBirth}, Bloomline has ${known.dateOfBirth} for this dog; Bloomline's is kept.`)
       }
     }
     else if (text.registeredName) {
-      const inFile = (number && newDogsByNumber.get(lower(number))) || (nameKey && newDogsByName.get(nameKey)) || undefined
-      if (inFile) {
-        dog = { key: inFile.key }
+      inFileDog = (numberKey && newDogsByNumber.get(numberKey)) || (nameKey && getIn(newDogsByName, nameKey, dateOfBirth!)) || undefined
+      if (inFileDog) {
+        dog = keyRef(inFileDog)
       }
       else {
         required('breed', 'a new dog needs its breed')
@@ -282,7 +358,7 @@ export function buildImportPreview(parsed: ParsedCsv, context: ImportContext, ch
         required('dateOfBirth', 'a new dog needs its date of birth')
         if (text.breed && sex && dateOfBirth) {
           newDog = {
-            key: `dog:${number ? `n:${lower(number)}` : `r:${nameKey}`}`,
+            key: `dog:${numberKey ? `n:${numberKey}` : `r:${nameKey}|${dateOfBirth}`}`,
             registeredName: text.registeredName,
             callName: (text.callName ?? text.registeredName).slice(0, 60),
             registrationNumber: number ?? null,
@@ -293,11 +369,11 @@ export function buildImportPreview(parsed: ParsedCsv, context: ImportContext, ch
             ownerEmail: ownerEmail ?? null,
             handlerId,
           }
-          dog = { key: newDog.key }
+          dog = keyRef(newDog)
         }
       }
     }
-    const dogBorn = known?.dateOfBirth ?? newDog?.dateOfBirth ?? (dog && 'key' in dog ? newDogsByKey.get(dog.key)?.dateOfBirth : undefined)
+    const dogBorn = (known ?? newDog ?? inFileDog)?.dateOfBirth
 
     let show: Ref | undefined
     let newShow: NewShow | undefined
@@ -322,16 +398,16 @@ export function buildImportPreview(parsed: ParsedCsv, context: ImportContext, ch
         }
       }
       if (text.showName && firstDay) {
-        const key = showKey(text.showName, firstDay)
-        const knownShow = showsByKey.get(key)
+        const name = lower(text.showName)
+        const knownShow = getIn(showsByName, name, firstDay)
         if (knownShow) {
-          show = { id: knownShow.id }
+          show = idRef(knownShow)
           if (knownShow.entriesCloseAt) closed = { late: context.now.getTime() > Date.parse(knownShow.entriesCloseAt), when: knownShow.entriesCloseAt.slice(0, 10) }
         }
         else {
-          const inFile = newShows.get(`show:${key}`)
+          const inFile = getIn(newShowsByName, name, firstDay)
           newShow = inFile ? undefined : {
-            key: `show:${key}`,
+            key: `show:${name}|${firstDay}`,
             name: text.showName,
             firstDay,
             lastDay: lastDay ?? firstDay,
@@ -340,7 +416,7 @@ export function buildImportPreview(parsed: ParsedCsv, context: ImportContext, ch
             judges: judges(text.judge),
             entriesCloseDate: closeDate ?? null,
           }
-          show = { key: `show:${key}` }
+          show = keyRef((inFile ?? newShow)!)
           const close = (inFile ?? newShow)!.entriesCloseDate
           if (close) closed = { late: context.today > close, when: close }
         }
@@ -352,16 +428,17 @@ export function buildImportPreview(parsed: ParsedCsv, context: ImportContext, ch
     if (show) actions.push('id' in show ? 'matched show' : 'new show')
     let newEntry: RowPlan['newEntry']
     let updateEntry: RowPlan['updateEntry']
+    let unchangedEntry: RowPlan['unchangedEntry']
     if (dog && show && classCode) {
-      const key = `${refKey(show)}|${refKey(dog)}|${classCode}`
-      const earlier = entryRows.get(key)
+      const earlier = enteredRow(show, dog, classCode)
       if (earlier !== undefined) problem('classCode', 'error', `Row ${row} repeats row ${earlier}: the same dog in the same class at the same show; leave one of them out.`)
-      const existing = entriesByKey.get(key)
+      const existing = 'id' in show && 'id' in dog ? entriesByIds.get(show.id)?.get(dog.id)?.get(classCode) : undefined
       const armband = text.armband ?? null
       if (existing) {
         const handler = handlerId ?? existing.handlerId
         const changed = (armband !== null && armband !== existing.armband) || handler !== existing.handlerId
         if (changed) updateEntry = { id: existing.id, armband: armband ?? existing.armband, handlerId: handler }
+        else unchangedEntry = { id: existing.id }
         actions.push(changed ? 'updated' : 'unchanged')
       }
       else {
@@ -384,38 +461,89 @@ export function buildImportPreview(parsed: ParsedCsv, context: ImportContext, ch
 
     const isExcluded = excluded.has(row)
     const hasError = problems.some(p => p.severity === 'error')
-    const plan: RowPlan | null = !hasError && dog ? { dog, newDog, show, newShow, newEntry, updateEntry } : null
+    const plan: RowPlan | null = !hasError && dog ? { dog, newDog, show, newShow, newEntry, updateEntry, unchangedEntry } : null
     if (!isExcluded && plan) {
       // Later rows reuse what this chosen row makes; a left-out row's dog or show is not made.
       if (newDog) {
-        if (newDog.registrationNumber) newDogsByNumber.set(lower(newDog.registrationNumber), newDog)
-        newDogsByName.set(`${lower(newDog.registeredName)}|${newDog.dateOfBirth}`, newDog)
-        newDogsByKey.set(newDog.key, newDog)
+        if (numberKey) newDogsByNumber.set(numberKey, newDog)
+        setIn(newDogsByName, lower(newDog.registeredName), newDog.dateOfBirth, newDog)
       }
-      if (newShow) newShows.set(newShow.key, newShow)
-      if (show && classCode) entryRows.set(`${refKey(show)}|${refKey(dog!)}|${classCode}`, row)
+      if (newShow) setIn(newShowsByName, lower(newShow.name), newShow.firstDay, newShow)
+      if (show && classCode) {
+        let byDog = entryRows.get(show)
+        if (!byDog) entryRows.set(show, byDog = new Map())
+        setIn(byDog, dog!, classCode, row)
+      }
     }
     return { row, values, actions, problems, excluded: isExcluded, plan }
-  })
+  }
 
-  return { dayOrder, dayOrderFromFile: detected.order !== null && !choices.dayOrder, rows, counts: countRows(rows) }
+  const dayOrderFromFile = detected.order !== null && !choices.dayOrder
+  const rows: PreviewRow[] = []
+  const next = (count: number) => {
+    const end = Math.min(rows.length + count, allValues.length)
+    const part: PreviewRow[] = []
+    while (rows.length < end) {
+      const read = readRow(allValues[rows.length]!)
+      rows.push(read)
+      part.push(read)
+    }
+    return part
+  }
+  return {
+    dayOrder,
+    dayOrderFromFile,
+    next,
+    finish: () => {
+      next(Number.POSITIVE_INFINITY)
+      return { dayOrder, dayOrderFromFile, rows, counts: countRows(rows) }
+    },
+  }
 }
 
+// One pass over the rows: the file can have a hundred thousand of them.
 function countRows(rows: readonly PreviewRow[]): ImportCounts {
-  const chosen = rows.filter(r => !r.excluded)
-  const distinct = (pick: (r: PreviewRow) => string | undefined) => new Set(chosen.map(pick).filter(Boolean)).size
+  const newDogs = new Set<string>()
+  const matchedDogs = new Set<number>()
+  const newShows = new Set<string>()
+  const matchedShows = new Set<number>()
+  let chosen = 0
+  let withErrors = 0
+  let withWarnings = 0
+  let newEntries = 0
+  let updated = 0
+  let unchanged = 0
+  for (const r of rows) {
+    if (r.problems.length) {
+      if (r.problems.some(p => p.severity === 'error')) withErrors++
+      if (r.problems.some(p => p.severity === 'warning')) withWarnings++
+    }
+    if (r.excluded) continue
+    chosen++
+    const plan = r.plan
+    if (!plan) continue
+    if ('key' in plan.dog) newDogs.add(plan.dog.key)
+    else matchedDogs.add(plan.dog.id)
+    if (plan.show) {
+      if ('key' in plan.show) newShows.add(plan.show.key)
+      else matchedShows.add(plan.show.id)
+    }
+    if (plan.newEntry) newEntries++
+    if (plan.updateEntry) updated++
+    if (r.actions.includes('unchanged')) unchanged++
+  }
   return {
     rows: rows.length,
-    chosen: chosen.length,
-    excluded: rows.length - chosen.length,
-    withErrors: rows.filter(r => r.problems.some(p => p.severity === 'error')).length,
-    withWarnings: rows.filter(r => r.problems.some(p => p.severity === 'warning')).length,
-    newDogs: distinct(r => r.plan && 'key' in r.plan.dog ? r.plan.dog.key : undefined),
-    matchedDogs: distinct(r => r.plan && 'id' in r.plan.dog ? String(r.plan.dog.id) : undefined),
-    newShows: distinct(r => r.plan?.show && 'key' in r.plan.show ? r.plan.show.key : undefined),
-    matchedShows: distinct(r => r.plan?.show && 'id' in r.plan.show ? String(r.plan.show.id) : undefined),
-    newEntries: chosen.filter(r => r.plan?.newEntry).length,
-    updated: chosen.filter(r => r.plan?.updateEntry).length,
-    unchanged: chosen.filter(r => r.plan && r.actions.includes('unchanged')).length,
+    chosen,
+    excluded: rows.length - chosen,
+    withErrors,
+    withWarnings,
+    newDogs: newDogs.size,
+    matchedDogs: matchedDogs.size,
+    newShows: newShows.size,
+    matchedShows: matchedShows.size,
+    newEntries,
+    updated,
+    unchanged,
   }
 }

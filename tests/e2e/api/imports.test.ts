@@ -77,14 +77,26 @@ describe('preview and commit', () => {
     const after = await tally()
     expect(Number(after.entries) - Number(before.entries)).toBe(3)
     expect(Number(after.dogs) - Number(before.dogs)).toBe(3)
+    // The answer names what it made by id, and leaves out the rows that went in cleanly.
+    expect(done.rows).toEqual([])
+    expect(done.dogs.map(d => [d.callName, d.created])).toEqual([1, 2, 3].map(i => [`Fernwhistle ${TAG} ${serial}-${i}`, true]))
+    expect(done.shows).toEqual([{ id: expect.any(Number), name: `${TAG} Import Show ${serial}`, firstDay: inDays(90), created: true }])
+    const made = await db.query('SELECT id, dog_id, show_id FROM entries WHERE organisation_id = $1 AND id = ANY($2) ORDER BY id', [people.organisationId, done.entries.created])
+    expect(made.rows.map(r => r.id)).toEqual(done.entries.created)
+    expect(new Set(made.rows.map(r => r.dog_id))).toEqual(new Set(done.dogs.map(d => d.id)))
+    expect(made.rows.every(r => r.show_id === done.shows[0]!.id)).toBe(true)
 
     const history = await ok<ImportHistoryView[]>(people.manager, '/api/imports', 'GET')
     expect(history[0]).toMatchObject({ id: done.importId, fileName: 'spring.csv', user: { id: people.ids.manager }, leftOut: 0 })
     expect(history[0]!.mapping).toEqual(done.mapping)
 
-    // Re-importing the same file changes nothing: every row is unchanged.
+    // Re-importing the same file changes nothing: every row is unchanged, and names the same dogs, show and entries.
     const again = await ok<ImportCommitView>(people.manager, '/api/imports/commit', 'POST', { ...body('spring.csv', text), commit: true })
-    expect(again.rows.map(r => r.actions)).toEqual(Array(3).fill(['matched dog', 'matched show', 'unchanged']))
+    expect(again.counts).toMatchObject({ matchedDogs: 3, matchedShows: 1, unchanged: 3, newDogs: 0, newShows: 0, newEntries: 0, updated: 0 })
+    expect(again.entries).toEqual({ created: [], updated: [], unchanged: done.entries.created })
+    expect(again.dogs).toEqual(done.dogs.map(d => ({ ...d, created: false })))
+    expect(again.shows).toEqual(done.shows.map(s => ({ ...s, created: false })))
+    expect(again.rows).toEqual([])
     const third = await tally()
     expect({ ...third, imports: '' }).toEqual({ ...after, imports: '' })
   })
@@ -101,6 +113,9 @@ describe('preview and commit', () => {
     // Left out, the other rows go in, and the left-out report says why, as CSV.
     const done = await ok<ImportCommitView>(people.manager, '/api/imports/commit', 'POST', { ...body('crafted.csv', text), commit: true, exclude: [4] })
     expect(done.counts).toMatchObject({ chosen: 2, excluded: 1, newEntries: 2 })
+    // Only the left-out row comes back, with the problems that kept it out.
+    expect(done.rows.map(r => [r.row, r.excluded, r.problems.map(p => p.field)])).toEqual([[4, true, ['showFirstDay', 'classCode']]])
+    expect(done.entries.created).toHaveLength(2)
     const report = await request(people.manager, `/api/imports/${done.importId}/left-out`)
     expect(report.headers.get('content-type')).toMatch(/text\/csv/)
     const bytes = new Uint8Array(await report.arrayBuffer())
@@ -149,8 +164,73 @@ describe('preview and commit', () => {
     ], { bom: true })
     const before = await tally()
     const done = await ok<ImportCommitView>(people.manager, '/api/imports/commit', 'POST', { ...body('export.csv', exported), commit: true })
-    expect(done.rows.map(r => [r.actions, r.problems])).toEqual(Array(2).fill([['matched dog', 'matched show', 'unchanged'], []]))
+    expect(done.counts).toMatchObject({ matchedDogs: 2, matchedShows: 1, unchanged: 2, newDogs: 0, newShows: 0, newEntries: 0, updated: 0, withWarnings: 0 })
+    expect(done.entries).toEqual({ created: [], updated: [], unchanged: entries.map(e => e.id).sort((a, b) => a - b) })
+    expect(done.rows).toEqual([])
     expect({ ...(await tally()), imports: '' }).toEqual({ ...before, imports: '' })
+  })
+
+  it('answers a commit with the rows that have a warning, and changes an armband in place', async () => {
+    const text = entryList(2)
+    const first = await ok<ImportCommitView>(people.manager, '/api/imports/commit', 'POST', { ...body('warn.csv', text), commit: true })
+    // Row 3 again with armband 9 and, in a new row, the same dog in Puppy: born 900 days before
+    // today, it is far past the KC's twelve months (Definitions of Classes, from memory; DESIGN.md §5).
+    const lines = text.split('\r\n')
+    const changed = [...lines, lines[2]!.replace(/,Open,2$/, ',Puppy,')].map((line, i) => i === 2 ? line.replace(/,2$/, ',9') : line).join('\r\n')
+    const done = await ok<ImportCommitView>(people.manager, '/api/imports/commit', 'POST', { ...body('warn.csv', changed), commit: true })
+    expect(done.counts).toMatchObject({ unchanged: 1, updated: 1, newEntries: 1, withWarnings: 1 })
+    expect(done.rows.map(r => [r.row, r.actions, r.problems.map(p => [p.severity, p.field])])).toEqual([[4, ['matched dog', 'matched show', 'new entry'], [['warning', 'classCode']]]])
+    expect(done.rows[0]!.problems[0]!.message).toContain('too old for Puppy')
+    expect(done.entries.updated).toHaveLength(1)
+    expect(first.entries.created).toContain(done.entries.updated[0])
+    const { rows } = await db.query('SELECT armband FROM entries WHERE id = $1', [done.entries.updated[0]])
+    expect(rows[0].armband).toBe('9')
+  })
+
+  it('stores quotes, backslashes, commas and braces in names exactly as the file has them', async () => {
+    // RFC 4180 §2.7: a double quote inside a quoted field is written twice. The names carry the
+    // characters PostgreSQL's array text treats specially (quote, backslash, comma, braces, NULL).
+    const show = `${TAG} "Spring" Open \\ {North}`
+    const dog = `Fernwhistle ${TAG} "Bramble", NULL`
+    const text = `Show,First day,Registered name,Breed,Sex,Date of birth,Class\r\n"${show.replace(/"/g, '""')}",${inDays(80)},"${dog.replace(/"/g, '""')}",Ashgrove Wire Terrier,dog,${addDays(inDays(0), -900)},Open\r\n`
+    const done = await ok<ImportCommitView>(people.manager, '/api/imports/commit', 'POST', { ...body('quotes.csv', text), commit: true })
+    expect(done.counts).toMatchObject({ newDogs: 1, newShows: 1, newEntries: 1 })
+    const stored = await db.query('SELECT s.name AS show, d.registered_name AS dog, d.call_name AS call FROM entries e JOIN shows s ON s.id = e.show_id JOIN dogs d ON d.id = e.dog_id WHERE e.id = $1', [done.entries.created[0]])
+    expect(stored.rows[0]).toEqual({ show, dog, call: dog })
+    expect(done.shows[0]!.name).toBe(show)
+  })
+
+  it('writes a file of thousands of rows in parts, a dog made early entered again late, all in one transaction', async () => {
+    // 3,100 dogs at one show, then the same dogs at a second: the server writes 2,500 rows at a
+    // time (server/utils/imports.ts), so later parts name dogs that earlier parts made.
+    serial++
+    const dogs = 3_100
+    const line = (show: number, i: number) => `${TAG} Long Show ${serial}-${show},${inDays(100 + show)},Fernwhistle ${TAG} L${serial}-${i},${TAG}-L${serial}-${i},Ashgrove Wire Terrier,${i % 2 ? 'dog' : 'bitch'},${addDays(inDays(0), -900)},Open,${i}`
+    const lines = ['Show,First day,Registered name,Registration number,Breed,Sex,Date of birth,Class,Armband']
+    for (const show of [1, 2]) for (let i = 1; i <= dogs; i++) lines.push(line(show, i))
+    const text = lines.join('\r\n')
+    const before = await tally()
+
+    // A bad row at the very end, after parts have been written: still nothing is kept.
+    const refused = await call(people.manager, '/api/imports/commit', 'POST', { ...body('long.csv', `${text}\r\n${TAG} Long Show,31/02/2027,Fernwhistle ${TAG} late,,Ashgrove Wire Terrier,dog,2024-01-01,Open,1`), commit: true })
+    expect(refused.status).toBe(400)
+    expect(refused.body.message).toMatch(new RegExp(`Row ${2 * dogs + 2} still has problems`))
+    expect(await tally()).toEqual(before)
+
+    const done = await ok<ImportCommitView>(people.manager, '/api/imports/commit', 'POST', { ...body('long.csv', text), commit: true })
+    expect(done.counts).toMatchObject({ rows: 2 * dogs, newDogs: dogs, newShows: 2, newEntries: 2 * dogs, withErrors: 0 })
+    expect(done.entries.created).toHaveLength(2 * dogs)
+    expect(done.dogs.filter(d => d.created)).toHaveLength(dogs)
+    const after = await tally()
+    expect(Number(after.entries) - Number(before.entries)).toBe(2 * dogs)
+    expect(Number(after.dogs) - Number(before.dogs)).toBe(dogs)
+    // Every dog is in both shows, under the one dog row: none was made twice across the parts.
+    const { rows } = await db.query(`SELECT d.registration_number, count(*)::int AS n, count(DISTINCT e.show_id)::int AS shows FROM entries e JOIN dogs d ON d.id = e.dog_id
+      WHERE e.id = ANY($1) GROUP BY d.registration_number`, [done.entries.created])
+    expect(rows).toHaveLength(dogs)
+    expect(rows.every(r => r.n === 2 && r.shows === 2)).toBe(true)
+    const last = await db.query('SELECT e.armband FROM entries e JOIN dogs d ON d.id = e.dog_id WHERE d.organisation_id = $1 AND d.registration_number = $2', [people.organisationId, `${TAG}-L${serial}-${dogs}`])
+    expect(last.rows).toEqual([{ armband: String(dogs) }, { armband: String(dogs) }])
   })
 
   it('remembers the mapping for the next file', async () => {
