@@ -59,7 +59,18 @@ export default defineNitroPlugin(async (nitro) => {
       })
     },
   })
-  await new Promise<void>(resolve => server.listen(port, '127.0.0.1', resolve))
+  try {
+    await new Promise<void>((resolve, reject) => {
+      server.once('error', reject)
+      server.listen(port, '127.0.0.1', () => resolve())
+    })
+  }
+  catch (error) {
+    // Taken between the check and now, by another process: mail waits in the outbox instead.
+    console.warn(`Demo mailbox: could not listen on ${port} (${(error as Error).message}); mail will wait in the outbox.`)
+    return
+  }
+  server.on('error', error => console.error(`Demo mailbox: ${error.message}`))
   useDemoSmtp(port)
   console.log(`Demo mailbox: SMTP on 127.0.0.1:${port}; managers read it on the Mailbox page.`)
   nitro.hooks.hook('close', () => new Promise<void>(resolve => server.close(() => resolve())))

@@ -10,8 +10,13 @@ export function jobTuning(env = process.env) {
     pollingIntervalSeconds: fast ? 0.5 : 2,
     maintenanceIntervalSeconds: fast ? 1 : 60,
     cronMonitorIntervalSeconds: fast ? 1 : 30,
-    /** A send that takes longer than this is taken for dead: its job is retried and its lock runs out. */
+    /** A send job running longer than this is taken for dead, and pg-boss tries it again. */
     mailExpireSeconds: fast ? 5 : 120,
+    /**
+     * How long a claimed message stays its worker's. Longer than the expiry in production, so a slow
+     * but live send is not taken up by a second worker; in the tests as long, so a crash recovers fast.
+     */
+    mailLockSeconds: fast ? 5 : 300,
     /** The first wait after a failed send; each further wait doubles. */
     mailRetrySeconds: Number(env.BLOOMLINE_MAIL_RETRY_SECONDS || (fast ? 1 : 30)),
     mailMaxAttempts: Number(env.BLOOMLINE_MAIL_MAX_ATTEMPTS || 10),
@@ -65,7 +70,11 @@ let queueChain: Promise<unknown> = Promise.resolve()
 export function ensureQueue(boss: PgBoss, name: string, options: Omit<PgBoss.Queue, 'name'> = {}): Promise<void> {
   const made = queueChain.then(async () => {
     for (let attempt = 1; ; attempt++) {
-      if (await boss.getQueue(name)) return
+      if (await boss.getQueue(name)) {
+        // Options changed in code reach a queue made by an earlier release.
+        await boss.updateQueue(name, { name, ...options })
+        return
+      }
       try {
         await boss.createQueue(name, { name, ...options })
         return

@@ -135,7 +135,7 @@ export async function queueMail(input: QueueMailInput): Promise<{ id: number, qu
  */
 export async function cancelWaitingMail(match: { organisationId: number | null, kind: MailKind, recipientEmail?: string, periodKeyPrefix?: string }): Promise<number> {
   const [, result] = await getSequelize().query(
-    `UPDATE mail_outbox SET status = 'cancelled', updated_at = now()
+    `UPDATE mail_outbox SET status = 'cancelled', ${FORGET_LINK_BODY}, updated_at = now()
      WHERE status IN ('pending', 'sending') AND kind = $1 AND COALESCE(organisation_id, 0) = COALESCE($2::int, 0)
        AND ($3::text IS NULL OR lower(recipient_email) = lower($3))
        AND ($4::text IS NULL OR starts_with(period_key, $4))`,
@@ -156,6 +156,9 @@ export async function askToSend(id: number, delaySeconds = 0) {
 
 interface ClaimedRow {
   id: string
+  organisation_id: number | null
+  recipient_user_id: number | null
+  kind: MailKind
   recipient_email: string
   recipient_name: string | null
   subject: string
@@ -164,7 +167,13 @@ interface ClaimedRow {
   headers: Record<string, string>
   message_id: string
   attempts: number
+  claim_token: string
 }
+
+// A sent or withdrawn message that carried a single-use link keeps no copy of it: the tables of
+// invitations and resets store only the link's hash, and the outbox must not undo that.
+const FORGET_LINK_BODY = `html = CASE WHEN kind IN ('invitation', 'password_reset') THEN '' ELSE html END,
+  text = CASE WHEN kind IN ('invitation', 'password_reset') THEN '(Removed once sent: it held a single-use link.)' ELSE text END`
 
 /** Seconds to wait before the next try after `attempts` failed ones: doubling, at most an hour. */
 export function retryDelaySeconds(attempts: number, base = jobTuning().mailRetrySeconds): number {
@@ -183,21 +192,32 @@ function isPermanent(error: unknown): boolean {
  * A failure puts it back to wait, with a doubling delay, until the last try marks it failed.
  * Returns what happened, for the worker's log and the tests.
  */
-export async function deliverOutbox(id: number): Promise<'sent' | 'retry' | 'failed' | 'skipped' | 'locked'> {
+export async function deliverOutbox(id: number): Promise<'sent' | 'retry' | 'failed' | 'skipped' | 'locked' | 'withdrawn'> {
   const sequelize = getSequelize()
   const tuning = jobTuning()
   const [claimed] = await sequelize.query(
-    `UPDATE mail_outbox SET status = 'sending', attempts = attempts + 1, locked_until = now() + make_interval(secs => $2), updated_at = now()
-     WHERE id = $1 AND (status = 'pending' OR (status = 'sending' AND locked_until < now()))
-     RETURNING id, recipient_email, recipient_name, subject, html, text, headers, message_id, attempts`,
-    { bind: [id, tuning.mailExpireSeconds] },
+    `UPDATE mail_outbox SET status = 'sending', attempts = attempts + 1, claim_token = gen_random_uuid(),
+       locked_until = now() + make_interval(secs => $2), updated_at = now()
+     WHERE id = $1 AND ((status = 'pending' AND next_attempt_at <= now() + interval '2 seconds') OR (status = 'sending' AND locked_until < now()))
+     RETURNING id, organisation_id, recipient_user_id, kind, recipient_email, recipient_name, subject, html, text, headers, message_id, attempts, claim_token`,
+    { bind: [id, tuning.mailLockSeconds] },
   ) as [ClaimedRow[], unknown]
   const row = claimed[0]
   if (!row) {
     const [state] = await sequelize.query(`SELECT status FROM mail_outbox WHERE id = $1`, { bind: [id] }) as [{ status: string }[], unknown]
-    // Held by a worker that may have died: the job is retried and claims it once the lock has run out.
-    if (state[0]?.status === 'sending') return 'locked'
+    // Held by a worker that may have died, or waiting for its time: the job is tried again later.
+    if (state[0]?.status === 'sending' || state[0]?.status === 'pending') return 'locked'
     return 'skipped'
+  }
+  // Only this claim may record the outcome; a row withdrawn meanwhile stays withdrawn.
+  const finish = (sets: string, bind: unknown[]) => sequelize.query(
+    `UPDATE mail_outbox SET ${sets}, locked_until = NULL, claim_token = NULL, updated_at = now() WHERE id = $1 AND claim_token = $2 AND status = 'sending'`,
+    { bind: [id, row.claim_token, ...bind] },
+  ) as Promise<[unknown, { rowCount?: number }]>
+  if (row.kind === 'weekly_status' && row.recipient_user_id && row.organisation_id && !await stillWantsWeekly(row.recipient_user_id, row.organisation_id)) {
+    // Removed from the organisation or unsubscribed since it was queued: the kennel's news is no longer theirs.
+    await finish(`status = 'cancelled'`, [])
+    return 'withdrawn'
   }
   const settings = smtpSettings()
   try {
@@ -216,21 +236,23 @@ export async function deliverOutbox(id: number): Promise<'sent' | 'retry' | 'fai
     const message = (error as Error).message.slice(0, 1000)
     const last = isPermanent(error) || row.attempts >= tuning.mailMaxAttempts
     const delay = retryDelaySeconds(row.attempts)
-    // Only a row still ours: one withdrawn meanwhile stays withdrawn.
-    const [, result] = await sequelize.query(
-      `UPDATE mail_outbox SET status = $2, last_error = $3, locked_until = NULL, next_attempt_at = now() + make_interval(secs => $4), updated_at = now() WHERE id = $1 AND status = 'sending'`,
-      { bind: [id, last ? 'failed' : 'pending', message, delay] },
-    ) as [unknown, { rowCount?: number }]
+    const [, result] = await finish(`status = $3, last_error = $4, next_attempt_at = now() + make_interval(secs => $5)`, [last ? 'failed' : 'pending', message, delay])
     if (!result?.rowCount) return 'skipped'
     if (last) return 'failed'
     await askToSend(id, delay)
     return 'retry'
   }
-  await sequelize.query(
-    `UPDATE mail_outbox SET status = 'sent', sent_at = now(), locked_until = NULL, last_error = NULL, updated_at = now() WHERE id = $1`,
-    { bind: [id] },
-  )
+  await finish(`status = 'sent', sent_at = now(), last_error = NULL, ${FORGET_LINK_BODY}`, [])
   return 'sent'
+}
+
+async function stillWantsWeekly(userId: number, organisationId: number): Promise<boolean> {
+  const [rows] = await getSequelize().query(
+    `SELECT 1 FROM memberships m WHERE m.user_id = $1 AND m.organisation_id = $2
+       AND NOT EXISTS (SELECT 1 FROM mail_unsubscribes u WHERE u.user_id = $1 AND u.organisation_id = $2 AND u.kind = 'weekly_status')`,
+    { bind: [userId, organisationId] },
+  ) as [unknown[], unknown]
+  return rows.length > 0
 }
 
 /** Asks again for every message that waits past its time or whose worker died; nothing is lost. */

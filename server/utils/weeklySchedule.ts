@@ -115,6 +115,7 @@ export async function loadWeeklyRecipients(organisation: WeeklyOrganisation, wee
 export async function queueWeeklyStatus(organisation: WeeklyOrganisation, week: string, options: { userId?: number } = {}): Promise<WeeklySendOutcome[]> {
   const members = (await loadWeeklyRecipients(organisation, week)).filter(m => options.userId === undefined || m.userId === options.userId)
   const outcomes: WeeklySendOutcome[] = []
+  const failures: string[] = []
   for (const member of members) {
     const base = { userId: member.userId, name: member.name, email: member.email }
     if (member.delivery) {
@@ -129,18 +130,25 @@ export async function queueWeeklyStatus(organisation: WeeklyOrganisation, week: 
       outcomes.push({ ...base, outcome: 'not-a-recipient', status: null })
       continue
     }
-    const message = await weeklyMessageFor(organisation, member, week)
-    const { queued } = await queueMail({
-      organisationId: organisation.id,
-      recipientUserId: member.userId,
-      to: member.email,
-      toName: member.name,
-      kind: 'weekly_status',
-      periodKey: week,
-      message,
-    })
-    outcomes.push({ ...base, outcome: queued ? 'queued' : 'already-sent', status: queued ? 'pending' : null })
+    try {
+      const message = await weeklyMessageFor(organisation, member, week)
+      const { queued } = await queueMail({
+        organisationId: organisation.id,
+        recipientUserId: member.userId,
+        to: member.email,
+        toName: member.name,
+        kind: 'weekly_status',
+        periodKey: week,
+        message,
+      })
+      outcomes.push({ ...base, outcome: queued ? 'queued' : 'already-sent', status: queued ? 'pending' : null })
+    }
+    catch (error) {
+      // One person's message failing to build must not hold up everyone after them.
+      failures.push(`${member.email}: ${(error as Error).message}`)
+    }
   }
+  if (failures.length) throw new Error(`The weekly status could not be built for ${failures.join('; ')}`)
   return outcomes
 }
 

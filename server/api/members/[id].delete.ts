@@ -20,6 +20,8 @@ export default defineEventHandler(async (event) => {
       { where: { organisationId: caller.organisationId, assigneeId: member.userId, status: { [Op.in]: ['open', 'in-progress'] } }, transaction },
     )
     await member.destroy({ transaction })
+    // A weekly status still waiting for them holds the kennel's news: withdraw it.
+    await cancelWaitingMail({ organisationId: caller.organisationId, kind: 'weekly_status', recipientEmail: member.user!.email })
   })
   setResponseStatus(event, 204)
   return null

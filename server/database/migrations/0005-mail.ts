@@ -33,6 +33,8 @@ export async function up({ context: qi }: { context: QueryInterface }) {
     attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
     last_error: { type: DataTypes.TEXT, allowNull: true },
     locked_until: { type: DataTypes.DATE, allowNull: true },
+    // Who holds the row while it is being sent: only that worker may record how the send ended.
+    claim_token: { type: DataTypes.UUID, allowNull: true },
     next_attempt_at: { type: DataTypes.DATE, allowNull: false, defaultValue: literal('CURRENT_TIMESTAMP') },
     sent_at: { type: DataTypes.DATE, allowNull: true },
     message_id: { type: DataTypes.STRING(200), allowNull: false },

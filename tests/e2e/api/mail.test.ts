@@ -81,6 +81,26 @@ describe('a message through the outbox', () => {
     expect(mail!.parsed.text?.trim()).toBe('Hello headers')
     expect(mail!.parsed.html).toContain('<b>headers</b>')
     expect((await outboxRow(id)).status).toBe('sent')
+    // Once sent, a message that may carry a single-use link keeps no copy of it (the link tables hold only hashes).
+    const { rows } = await db.query('SELECT html, text FROM mail_outbox WHERE id = $1', [id])
+    expect(rows[0]).toEqual({ html: '', text: '(Removed once sent: it held a single-use link.)' })
+  })
+
+  it('a weekly status for someone no longer in the organisation is withdrawn at sending time, not sent', async () => {
+    const { rows } = await db.query(`SELECT id, email FROM users WHERE email = 'corrie@northfold.example'`)
+    const outsider = rows[0] as { id: number, email: string }
+    const subject = `Weekly status for an outsider ${run}`
+    const { id } = await queueMail({
+      organisationId,
+      recipientUserId: outsider.id,
+      to: outsider.email,
+      kind: 'weekly_status',
+      periodKey: `mailtest-outsider-${run}`,
+      message: { subject, html: '<p>The kennel news</p>', text: 'The kennel news' },
+    })
+    expect((await until(() => outboxRow(id), row => row.status !== 'pending' && row.status !== 'sending')).status).toBe('cancelled')
+    await settle()
+    expect(smtp.received.filter(m => m.parsed.subject === subject)).toHaveLength(0)
   })
 
   it('is written once however often the same key is queued', async () => {
