@@ -49,10 +49,14 @@ export async function gotoHydrated(page: Page, url: string) {
   await page.waitForFunction(() => document.documentElement.dataset.hydrated === 'true')
 }
 
-/** Saves a full-page screenshot under tests/artifacts/screenshots. */
+/**
+ * Saves a full-page screenshot under tests/artifacts/screenshots. A tall page on a busy two-core
+ * machine can take Chromium well over the tests' 10-second step timeout to capture; the picture is
+ * for people to look at, not a check, so it gets a minute.
+ */
 export async function screenshot(page: Page, name: string) {
   mkdirSync(screenshotDir, { recursive: true })
-  await page.screenshot({ path: join(screenshotDir, `${name}.png`), fullPage: true })
+  await page.screenshot({ path: join(screenshotDir, `${name}.png`), fullPage: true, timeout: 60_000 })
 }
 
 const axePath = createRequire(import.meta.url).resolve('axe-core/axe.min.js')
