@@ -96,7 +96,8 @@ describe('import wizard in Chromium', () => {
     await expect.poll(() => step(page)).toBe('3')
     expect(await page.getByTestId('done-shows').getByRole('link').allTextContents()).toEqual([SHOW, 'Ollerby Wire Championship'])
     expect((await page.getByTestId('done-dogs').getByRole('link').allTextContents()).sort()).toEqual(['Quince', 'Tansy', 'Wren'])
-    expect(await page.getByTestId('import-history').locator('li').first().textContent()).toMatch(/wizard-messy-semicolons\.csv.*5 new entries/s)
+    // The history reloads after the commit; look again until it has.
+    await expect.poll(() => page.getByTestId('import-history').locator('li').first().textContent()).toMatch(/wizard-messy-semicolons\.csv.*5 new entries/s)
     expect(await accessibilityProblems(page)).toEqual([])
     await screenshot(page, 'import-4-done')
 

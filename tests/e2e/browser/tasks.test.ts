@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import type { DogView, GridView, PlanView, ShowView } from '../../../shared/types/kennel'
 import type { MemberView } from '../../../shared/types/organisation'
 import type { TaskView } from '../../../shared/types/tasks'
-import { accessibilityProblems, browserPerTest, screenshot, signInThroughForm, type Page } from '../helpers/browser'
+import { accessibilityProblems, browserPerTest, gotoHydrated, screenshot, signInThroughForm, type Page } from '../helpers/browser'
 import { baseUrl, demoAccount, signedIn, type CookieJar } from '../helpers/http'
 import { makeDog, makeShow, ok, TAG } from '../helpers/kennelApi'
 
@@ -54,7 +54,7 @@ describe('grooming tasks in Chromium', () => {
     expect(plannedSteps).toBeGreaterThan(0)
     const page = await open('desktop')
     await signIn(page, 'manager')
-    await page.goto(`${baseUrl}/dogs/${dog.id}`)
+    await gotoHydrated(page, `${baseUrl}/dogs/${dog.id}`)
     const panel = page.getByTestId('from-plan')
     await expect.poll(() => panel.locator('[data-has-task="false"]').count()).toBe(plannedSteps)
     await panel.getByTestId('from-plan-submit').click()
@@ -69,7 +69,7 @@ describe('grooming tasks in Chromium', () => {
     given = tasks.find(t => t.kind === 'layer')!
     expect(given).toBeDefined()
 
-    await page.goto(`${baseUrl}/board?start=${given.dueDate}`)
+    await gotoHydrated(page, `${baseUrl}/board?start=${given.dueDate}`)
     const grid = page.getByTestId('board-grid')
     const item = grid.locator(`[data-person="nobody"] [data-board-task="${given.id}"]`)
     await item.waitFor()
@@ -97,7 +97,7 @@ describe('grooming tasks in Chromium', () => {
   it('the week board reads day by day on a phone', async () => {
     const page = await open('phone')
     await signIn(page, 'manager')
-    await page.goto(`${baseUrl}/board?start=${given.dueDate}`)
+    await gotoHydrated(page, `${baseUrl}/board?start=${given.dueDate}`)
     const list = page.getByTestId('board-days')
     await list.locator(`[data-day="${given.dueDate}"] [data-board-task="${given.id}"]`).waitFor()
     expect(await list.locator(`[data-day="${given.dueDate}"] [data-board-task="${given.id}"]`).textContent()).toContain(fixture.pip.name)
@@ -118,7 +118,7 @@ describe('grooming tasks in Chromium', () => {
     // A fake clock drives the area timer: no test waits ten minutes.
     await page.clock.install()
     await signIn(page, 'assistant')
-    await page.goto(`${baseUrl}/tasks`)
+    await gotoHydrated(page, `${baseUrl}/tasks`)
     const card = page.locator(`[data-testid="task-card"][data-task="${given.id}"]`)
     await card.waitFor()
     expect(await card.getByTestId('dog-mark').textContent()).toBe(dog.callName[0]!.toUpperCase())
@@ -152,7 +152,7 @@ describe('grooming tasks in Chromium', () => {
     await shoot(page, 'task-phone')
     expect(await accessibilityProblems(page)).toEqual([])
 
-    await page.goto(`${baseUrl}/tasks`)
+    await gotoHydrated(page, `${baseUrl}/tasks`)
     await expect.poll(() => page.getByTestId('tasks-done').locator(`[data-task="${given.id}"]`).getAttribute('data-status')).toBe('done')
 
     const after = await ok<GridView>(manager, `/api/grid?show=${show.id}`, 'GET')
@@ -161,7 +161,7 @@ describe('grooming tasks in Chromium', () => {
 
     const desk = await open('desktop')
     await signIn(desk, 'manager')
-    await desk.goto(`${baseUrl}/grid`)
+    await gotoHydrated(desk, `${baseUrl}/grid`)
     await desk.getByTestId('coat-grid').waitFor()
     await desk.getByTestId('grid-show').selectOption(String(show.id))
     await desk.getByTestId('grid-search').fill(dog.callName)
@@ -174,7 +174,7 @@ describe('grooming tasks in Chromium', () => {
     const workBefore = await ok<unknown[]>(manager, `/api/dogs/${dog.id}/work`, 'GET')
     const page = await open('desktop')
     await signIn(page, 'manager')
-    await page.goto(`${baseUrl}/tasks/${given.id}`)
+    await gotoHydrated(page, `${baseUrl}/tasks/${given.id}`)
     await page.getByTestId('reopen-dialog-open').click()
     const dialog = page.getByTestId('reopen-dialog')
     // Nothing is chosen for the user: submitting without a choice is refused on the page.
@@ -194,17 +194,17 @@ describe('grooming tasks in Chromium', () => {
     await ok(assistant, `/api/tasks/${bath.id}/finish`, 'POST', {}, 200)
     const page = await open('phone')
     await signIn(page, 'assistant')
-    await page.goto(`${baseUrl}/tasks`)
+    await gotoHydrated(page, `${baseUrl}/tasks`)
     // Work within 48 hours of a bath (DESIGN.md §4, common practice).
     await expect.poll(() => page.getByTestId('bath-window').first().textContent()).toContain('48 hours')
     const desk = await open('desktop')
     await signIn(desk, 'manager')
-    await desk.goto(`${baseUrl}/dogs/${dog.id}`)
+    await gotoHydrated(desk, `${baseUrl}/dogs/${dog.id}`)
     await expect.poll(() => desk.getByTestId('bath-window').textContent()).toContain(dog.callName)
 
     // Skipping the done bath asks about its coat work too; removing it takes it out of the log.
     const workBefore = await ok<{ id: number }[]>(manager, `/api/dogs/${dog.id}/work`, 'GET')
-    await desk.goto(`${baseUrl}/tasks/${bath.id}`)
+    await gotoHydrated(desk, `${baseUrl}/tasks/${bath.id}`)
     await desk.getByTestId('skip-dialog-open').click()
     const dialog = desk.getByTestId('skip-dialog')
     await dialog.getByTestId('skip-reason').fill('The bath was cut short by rain.')
