@@ -2,7 +2,7 @@ import type { Model, Transaction } from 'sequelize'
 import { AuditEvent } from '../database/models'
 
 /** The record kinds the audit trail names. */
-export type AuditEntity = 'dog' | 'coat_work' | 'show' | 'entry' | 'coat_profile'
+export type AuditEntity = 'dog' | 'coat_work' | 'show' | 'entry' | 'coat_profile' | 'task'
 
 /** A model row as plain data for the audit trail (dates become ISO 8601 strings in JSONB). */
 export function auditSnapshot(row: Model): Record<string, unknown> {

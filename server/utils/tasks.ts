@@ -266,3 +266,28 @@ export function requireActive(task: TaskRecord, doing: string): void {
   if (task.status === 'done') throw conflict(`This task is already done; reopen it before you ${doing}.`)
   if (task.status === 'skipped') throw conflict(`This task was skipped; reopen it before you ${doing}.`)
 }
+
+/** A task row as the audit trail keeps it, read inside `transaction`; null once it is gone. */
+export async function taskSnapshot(id: number, transaction: Transaction): Promise<Record<string, unknown> | null> {
+  const row = await useModels().Task.findByPk(id, { transaction })
+  return row ? auditSnapshot(row) : null
+}
+
+/**
+ * Runs `change` on a task inside `transaction` and writes one audit row with the task before and
+ * after it, so every change to a task (who moved, gave, ran, skipped, reopened or deleted it) is
+ * on record with the coat work it recorded.
+ */
+export async function auditedTaskChange<T>(caller: Caller, id: number, action: 'update' | 'delete', transaction: Transaction, change: () => Promise<T>): Promise<T> {
+  const before = await taskSnapshot(id, transaction)
+  const result = await change()
+  await recordAudit(caller, 'task', id, action, { before, after: action === 'delete' ? null : await taskSnapshot(id, transaction) }, transaction)
+  return result
+}
+
+/** Writes a `create` audit row for each task just made inside `transaction`. */
+export async function auditTasksCreated(caller: Caller, ids: readonly number[], transaction: Transaction): Promise<void> {
+  if (!ids.length) return
+  const rows = await useModels().Task.findAll({ where: { id: [...ids] }, transaction })
+  for (const row of rows) await recordAudit(caller, 'task', row.id, 'create', { after: auditSnapshot(row) }, transaction)
+}

@@ -9,7 +9,7 @@ export default defineEventHandler(async (event) => {
       throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: 'Only a manager or the person who made this task may delete it.' })
     }
     if (task.status === 'done' || task.coatWorkId !== null) throw conflict('This task recorded coat work; reopen or skip it instead of deleting it.')
-    await Task.destroy({ where: { id }, transaction })
+    await auditedTaskChange(caller, id, 'delete', transaction, () => Task.destroy({ where: { id }, transaction }))
   })
   setResponseStatus(event, 204)
   return null

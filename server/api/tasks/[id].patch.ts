@@ -30,11 +30,11 @@ export default defineEventHandler(async (event): Promise<TaskView> => {
     const end = patch.windowEnd !== undefined ? patch.windowEnd : task.windowEnd
     if (start && end && start >= end) throw invalidField('windowEnd', 'The window must end after it starts')
     const { kind, regions, ...rest } = patch
-    await Task.update({
+    await auditedTaskChange(caller, id, 'update', transaction, () => Task.update({
       ...rest,
       ...(kind ? { kind: kind as WorkKind } : {}),
       ...(regions ? { regions: [...new Set(regions)] } : {}),
-    }, { where: { id }, transaction })
+    }, { where: { id }, transaction }))
   })
   return requireTaskView(caller, id)
 })

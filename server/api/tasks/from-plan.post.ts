@@ -45,6 +45,7 @@ export default defineEventHandler(async (event): Promise<FromPlanResult> => {
         })
       ids.push(...rows.map(r => r.id))
     }
+    await auditTasksCreated(caller, ids, transaction)
     return ids
   })
   const keys = [...new Set(chosen.map(o => o.key))]

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { addDays, assessDog, type CoatWork } from '../../../shared/coat'
 import { planStepKey } from '../../../shared/tasks'
-import type { CoatWorkLogItem, DogView, PlanView, ProfileView, ReadinessView } from '../../../shared/types/kennel'
+import type { AuditEventView, CoatWorkLogItem, DogView, PlanView, ProfileView, ReadinessView } from '../../../shared/types/kennel'
 import type { BathWindowView, FromPlanResult, PlanStepsView, TaskView, WeekBoardView } from '../../../shared/types/tasks'
 import { call, database, expectFieldError, expectNo500, inDays, kennelPeople, makeDog, makeShow, ok, today, type KennelPeople } from '../helpers/kennelApi'
 
@@ -396,5 +396,53 @@ describe('the bath window', () => {
     expect((await ok<BathWindowView>(p.manager, `/api/tasks/bath-window?dog=${bathed.id}`, 'GET')).window).toBeNull()
     expect((await call(p.assistant2, `/api/tasks/bath-window?dog=${bathed.id}`)).status).toBe(404)
     expect((await call(p.foreign, `/api/tasks/bath-window?dog=${bathed.id}`)).status).toBe(404)
+  })
+})
+
+describe('the audit trail of a task', () => {
+  // Every change is kept with who made it and the row before and after: common practice for a
+  // record others act on (OWASP ASVS 5.0, chapter V16 "Security Logging and Error Handling"; from memory).
+  it('records making, giving, finishing, reopening and deleting a task, each with its actor, and the dog\'s history shows them to managers and handlers only', async () => {
+    const task = await makeTask({ notes: 'Audit me.' }, p.handler)
+    await ok(p.handler, `/api/tasks/${task.id}`, 'PATCH', { assigneeId: p.ids.assistant, dueDate: inDays(1) }, 200)
+    await ok(p.assistant, `/api/tasks/${task.id}/finish`, 'POST', { minutes: 7 }, 200)
+    await ok(p.manager, `/api/tasks/${task.id}/reopen`, 'POST', { keepWork: false }, 200)
+    expect((await call(p.assistant, `/api/tasks/${task.id}`, 'DELETE')).status).toBe(403)
+    expect((await call(p.handler, `/api/tasks/${task.id}`, 'DELETE')).status).toBe(204)
+
+    const { rows } = await db.query(`SELECT action, actor_id, before, after FROM audit_events WHERE entity = 'task' AND entity_id = $1 ORDER BY id`, [task.id])
+    expect(rows.map(r => [r.action, r.actor_id])).toEqual([
+      ['create', p.ids.handler], ['update', p.ids.handler], ['update', p.ids.assistant], ['update', p.ids.manager], ['delete', p.ids.handler],
+    ])
+    const [made, given, finished, reopened, deleted] = rows
+    expect(made.before).toBeNull()
+    expect(made.after).toMatchObject({ id: task.id, dogId: dog.id, status: 'open', notes: 'Audit me.', assigneeId: null })
+    expect([given.before.assigneeId, given.after.assigneeId, given.after.dueDate]).toEqual([null, p.ids.assistant, inDays(1)])
+    expect([finished.before.status, finished.after.status, finished.after.minutes]).toEqual(['open', 'done', 7])
+    expect(finished.after.coatWorkId).toEqual(expect.any(Number))
+    expect([reopened.before.status, reopened.after.status, reopened.after.coatWorkId]).toEqual(['done', 'open', null])
+    expect(deleted.before).toMatchObject({ id: task.id, status: 'open' })
+    expect(deleted.after).toBeNull()
+
+    const history = await ok<AuditEventView[]>(p.handler, `/api/dogs/${dog.id}/history`, 'GET')
+    expect(history.filter(e => e.entity === 'task' && e.entityId === task.id).map(e => e.action)).toEqual(['delete', 'update', 'update', 'update', 'create'])
+    const assistantsView = await ok<AuditEventView[]>(p.assistant, `/api/dogs/${dog.id}/history`, 'GET')
+    expect(assistantsView.some(e => e.entity === 'task')).toBe(false)
+  })
+
+  it('records each task made from the plan, and a refused change records nothing', async () => {
+    const other = await makeDog(p.manager, { handlerId: p.ids.handler, dateOfBirth: inDays(-500) })
+    const show = await makeShow(p.manager, 70)
+    await ok(p.manager, '/api/entries', 'POST', { dogId: other.id, showId: show.id, classCode: 'kc:junior' })
+    const result = await ok<FromPlanResult>(p.manager, '/api/tasks/from-plan', 'POST', { dogId: other.id })
+    expect(result.created.length).toBeGreaterThan(0)
+    const ids = result.created.map(t => t.id)
+    const { rows } = await db.query(`SELECT entity_id, action FROM audit_events WHERE entity = 'task' AND entity_id = ANY($1::int[]) ORDER BY entity_id`, [ids])
+    expect(rows).toEqual([...ids].sort((a, b) => a - b).map(id => ({ entity_id: id, action: 'create' })))
+
+    const before = await db.query(`SELECT count(*)::int AS n FROM audit_events WHERE entity = 'task' AND entity_id = $1`, [ids[0]])
+    expectFieldError(await call(p.manager, `/api/tasks/${ids[0]}`, 'PATCH', { windowStart: '10:00', windowEnd: '09:00' }), 'windowEnd')
+    const after = await db.query(`SELECT count(*)::int AS n FROM audit_events WHERE entity = 'task' AND entity_id = $1`, [ids[0]])
+    expect(after.rows[0].n).toBe(before.rows[0].n)
   })
 })

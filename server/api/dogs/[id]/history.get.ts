@@ -1,6 +1,6 @@
 import type { AuditEventView } from '../../../../shared/types/kennel'
 
-/** The recorded changes to a dog's coat work (and, for managers and handlers, to its record), newest first. */
+/** The recorded changes to a dog's coat work (and, for managers and handlers, to its record and its tasks), newest first. */
 export default defineEventHandler(async (event): Promise<AuditEventView[]> => {
   const caller = await requireCaller(event)
   const id = await readRecordId(event, 'dog')
@@ -10,7 +10,8 @@ export default defineEventHandler(async (event): Promise<AuditEventView[]> => {
      FROM audit_events a LEFT JOIN users u ON u.id = a.actor_id
      WHERE a.organisation_id = :organisationId AND (
        (a.entity = 'coat_work' AND (a.before->>'dogId' = :dogKey OR a.after->>'dogId' = :dogKey))
-       OR (:withDog AND a.entity = 'dog' AND a.entity_id = :dogId))
+       OR (:withDog AND a.entity = 'dog' AND a.entity_id = :dogId)
+       OR (:withDog AND a.entity = 'task' AND (a.before->>'dogId' = :dogKey OR a.after->>'dogId' = :dogKey)))
      ORDER BY a.id DESC LIMIT 500`,
     { organisationId: caller.organisationId, dogKey: String(id), dogId: id, withDog: caller.role !== 'assistant' })
   return rows.map(r => ({

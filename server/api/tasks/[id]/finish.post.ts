@@ -35,7 +35,7 @@ export default defineEventHandler(async (event): Promise<TaskView> => {
       deletedById: null,
     }, { transaction })
     await recordAudit(caller, 'coat_work', work.id, 'create', { after: auditSnapshot(work) }, transaction)
-    await Task.update({ status: 'done', doneAt: new Date(), coatWorkId: work.id, minutes, skipReason: null }, { where: { id }, transaction })
+    await auditedTaskChange(caller, id, 'update', transaction, () => Task.update({ status: 'done', doneAt: new Date(), coatWorkId: work.id, minutes, skipReason: null }, { where: { id }, transaction }))
   })
   return requireTaskView(caller, id)
 })

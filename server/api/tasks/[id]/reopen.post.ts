@@ -17,7 +17,7 @@ export default defineEventHandler(async (event): Promise<TaskView> => {
     const keep = requireWorkChoice(task, body.keepWork, 'keepWork')
     if (keep === false) await removeTaskWork(caller, task.coatWorkId!, transaction)
     // Kept work stays in the log (still naming the task); finishing again records new work.
-    await Task.update({ status: 'open', doneAt: null, skipReason: null, coatWorkId: null }, { where: { id }, transaction })
+    await auditedTaskChange(caller, id, 'update', transaction, () => Task.update({ status: 'open', doneAt: null, skipReason: null, coatWorkId: null }, { where: { id }, transaction }))
   })
   return requireTaskView(caller, id)
 })

@@ -13,12 +13,12 @@ export default defineEventHandler(async (event): Promise<TaskView> => {
     if (task.status === 'skipped') throw conflict('This task is already skipped.')
     const remove = requireWorkChoice(task, body.removeWork, 'removeWork')
     if (remove) await removeTaskWork(caller, task.coatWorkId!, transaction)
-    await Task.update({
+    await auditedTaskChange(caller, id, 'update', transaction, () => Task.update({
       status: 'skipped',
       skipReason: body.reason,
       doneAt: null,
       ...(remove ? { coatWorkId: null } : {}),
-    }, { where: { id }, transaction })
+    }, { where: { id }, transaction }))
   })
   return requireTaskView(caller, id)
 })
