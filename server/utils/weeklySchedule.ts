@@ -1,6 +1,6 @@
 import type { OutboxStatus } from '../../shared/types/mail'
 import type { Role } from '../../shared/types/organisation'
-import type { WeeklyRecipientState, WeeklyRecipientView, WeeklySendOutcome, WeeklySettingsView } from '../../shared/types/weekly'
+import type { WeeklyRecipientState, WeeklyRecipientView, WeeklySendOutcome, WeeklySettingsView, WeeklySubscriptionView } from '../../shared/types/weekly'
 import { isoWeekRange, nextWeeklySendAt, weeklyDue, weeklySendAt, type WeeklySchedule, type ZoneClock } from '../../shared/weekly'
 import type { Organisation } from '../database/models'
 import type { Caller } from './auth'
@@ -8,6 +8,7 @@ import { kennelSequelize } from './kennel'
 import { selectRows } from './kennelData'
 import { queueMail } from './mail'
 import { todayInTimeZone, wallClockToInstant } from './time'
+import { weeklyUnsubscribedAt } from './unsubscribe'
 import { weeklyMessageFor, type WeeklyMember, type WeeklyOrganisation } from './weeklyStatus'
 
 /** The pg-boss queue of the weekly tick; its cron runs it every minute. */
@@ -217,4 +218,20 @@ export function weeklyWeekOf(organisation: WeeklyOrganisation, week?: string, no
   const chosen = week ?? current.week
   const sendAt = chosen === current.week ? current.sendAt : weeklySendAt(chosen, weeklySchedule(organisation), weeklyClock)
   return { week: chosen, ...isoWeekRange(chosen), sendAt, due: now >= sendAt }
+}
+
+/** The caller's own weekly status: whether they get it, since when they do not, and when it goes out. */
+export async function weeklySubscriptionView(caller: Pick<Caller, 'userId' | 'organisationId' | 'role'>, now = new Date()): Promise<WeeklySubscriptionView> {
+  const organisation = await callerWeeklyOrganisation(caller)
+  const since = await weeklyUnsubscribedAt(caller.userId, caller.organisationId)
+  const settings = weeklySettingsView(organisation, now)
+  return {
+    subscribed: since === null,
+    unsubscribedAt: since?.toISOString() ?? null,
+    sentToRole: organisation.weeklyEnabled && roleReceives(organisation, caller.role),
+    day: settings.day,
+    hour: settings.hour,
+    timeZone: settings.timeZone,
+    nextSendAt: settings.nextSendAt,
+  }
 }

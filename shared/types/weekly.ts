@@ -107,4 +107,12 @@ export interface UnsubscribeLookupView {
 export interface WeeklySubscriptionView {
   subscribed: boolean
   unsubscribedAt: string | null
+  /** Whether the organisation sends the weekly status to the caller's role at all (it is on, and assistants get it when it says so). */
+  sentToRole: boolean
+  /** When it goes out, on the organisation's clock: ISO weekday (1 = Monday) and hour. */
+  day: number
+  hour: number
+  timeZone: string
+  /** The next sending (UTC instant); null while the weekly status is off. */
+  nextSendAt: string | null
 }

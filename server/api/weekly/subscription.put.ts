@@ -6,6 +6,5 @@ export default defineEventHandler(async (event): Promise<WeeklySubscriptionView>
   const caller = await requireCaller(event)
   const { subscribed } = await readBodyWith(event, weeklySubscriptionSchema)
   await setWeeklySubscribed(caller.userId, caller.organisationId, subscribed)
-  const since = await weeklyUnsubscribedAt(caller.userId, caller.organisationId)
-  return { subscribed: since === null, unsubscribedAt: since?.toISOString() ?? null }
+  return weeklySubscriptionView(caller)
 })

@@ -290,7 +290,11 @@ describe('my own subscription', () => {
   it('any member reads and changes their own, and a manager sees it on the list', async () => {
     const ines = clone.person('ines@larkspur.example')
     const jar = await signedInAs(ines)
-    expect((await json<WeeklySubscriptionView>(jar, '/api/weekly/subscription')).body).toEqual({ subscribed: true, unsubscribedAt: null })
+    const settings = (await json<WeeklySettingsView>(manager, '/api/weekly/settings')).body
+    // What the person is told of the sending is the organisation's own settings, read back.
+    expect((await json<WeeklySubscriptionView>(jar, '/api/weekly/subscription')).body).toEqual({
+      subscribed: true, unsubscribedAt: null, sentToRole: settings.enabled, day: settings.day, hour: settings.hour, timeZone: settings.timeZone, nextSendAt: settings.nextSendAt,
+    })
     const off = await json<WeeklySubscriptionView>(jar, '/api/weekly/subscription', { method: 'PUT', json: { subscribed: false } })
     expect(off.body.subscribed).toBe(false)
     const members = (await json<MemberView[]>(manager, '/api/members')).body
@@ -298,9 +302,19 @@ describe('my own subscription', () => {
     const listed = await json<WeeklyRecipientsView>(manager, '/api/weekly/recipients?week=2030-W11')
     expect(listed.body.recipients.find(r => r.userId === ines.userId)?.unsubscribed).toBe(true)
     const on = await json<WeeklySubscriptionView>(jar, '/api/weekly/subscription', { method: 'PUT', json: { subscribed: true } })
-    expect(on.body).toEqual({ subscribed: true, unsubscribedAt: null })
+    expect(on.body).toMatchObject({ subscribed: true, unsubscribedAt: null })
     const bad = await json(jar, '/api/weekly/subscription', { method: 'PUT', json: { subscribed: 'no' } })
     expect(bad.status).toBe(400)
     expect(fieldsOf(bad.body)).toEqual(['subscribed'])
+  })
+
+  it('tells an assistant whether their role gets it at all, as the organisation\'s setting says', async () => {
+    const jar = await signedInAs(clone.person('pip@larkspur.example'))
+    const before = (await json<WeeklySettingsView>(manager, '/api/weekly/settings')).body
+    for (const toAssistants of [true, false]) {
+      expect((await json(manager, '/api/weekly/settings', { method: 'PATCH', json: { toAssistants } })).status).toBe(200)
+      expect((await json<WeeklySubscriptionView>(jar, '/api/weekly/subscription')).body.sentToRole).toBe(toAssistants && before.enabled)
+    }
+    await json(manager, '/api/weekly/settings', { method: 'PATCH', json: { toAssistants: before.toAssistants } })
   })
 })

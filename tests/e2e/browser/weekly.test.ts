@@ -194,3 +194,28 @@ describe('the unsubscribe page', () => {
     expect(await accessibilityProblems(page)).toEqual([])
   })
 })
+
+describe('the weekly e-mail card on the home page', () => {
+  it('tells a handler when theirs goes out, stops it and starts it again, as the manager\'s list then shows', async () => {
+    const ines = clone.person('ines@larkspur.example')
+    const listed = async () => ((await (await request(manager, '/api/weekly/recipients')).json()) as { recipients: { userId: number, unsubscribed: boolean }[] }).recipients.find(r => r.userId === ines.userId)!.unsubscribed
+    const page = await open('phone')
+    await signIn(page, ines)
+    const card = page.getByTestId('weekly-mail-card')
+    await card.waitFor()
+    // The sending time as the organisation's settings give it (ISO 8601 weekday 1 = Monday), in words.
+    const settings = await (await request(manager, '/api/weekly/settings')).json() as { day: number, hour: number, timeZone: string }
+    const days = ['Monday', 'Tuesday', 'Wednesday', 'Thursday', 'Friday', 'Saturday', 'Sunday']
+    expect(await page.getByTestId('weekly-mail-state').textContent()).toContain(`${days[settings.day - 1]}s at ${String(settings.hour).padStart(2, '0')}:00 (${settings.timeZone})`)
+    await page.getByTestId('weekly-mail-stop').click()
+    await expect.poll(() => page.getByTestId('weekly-mail-state').textContent()).toContain('You stopped it on')
+    expect(await listed()).toBe(true)
+    await card.scrollIntoViewIfNeeded()
+    expect(await accessibilityProblems(page)).toEqual([])
+    expect(await overflowsSideways(page)).toBe(false)
+    await shoot(page, 'home-weekly-mail-stopped-phone')
+    await page.getByTestId('weekly-mail-start').click()
+    await expect.poll(() => page.getByTestId('weekly-mail-state').textContent()).toContain('You get it on')
+    expect(await listed()).toBe(false)
+  })
+})
