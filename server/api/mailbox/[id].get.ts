@@ -5,9 +5,11 @@ import type { DemoMailView } from '../../../shared/types/mail'
 /** One message of the demo mailbox, read with mailparser: its HTML and text parts and its headers. */
 export default defineEventHandler(async (event): Promise<DemoMailView> => {
   requireDemoMode()
-  await requireCaller(event, ['manager'])
+  const caller = await requireCaller(event, ['manager'])
   const { id } = await paramsWith(event, idParamSchema)
-  const row = await useModels().DemoMail.findByPk(id)
+  // Another organisation's message is a 404, as if it were not there.
+  const [mine] = await demoMailIdsFor(caller, { id })
+  const row = mine === undefined ? null : await useModels().DemoMail.findByPk(id)
   if (!row) throw notFound('message')
   const parsed = await simpleParser(row.raw)
   return {

@@ -1,10 +1,11 @@
 import type { DemoMailSummary } from '../../../shared/types/mail'
 
-/** The demo mailbox: every message the demo's own SMTP server received, newest first. Managers, demo mode only. */
+/** The demo mailbox: the messages the demo's own SMTP server received for people of the manager's organisation, newest first. Managers, demo mode only. */
 export default defineEventHandler(async (event): Promise<DemoMailSummary[]> => {
   requireDemoMode()
-  await requireCaller(event, ['manager'])
+  const caller = await requireCaller(event, ['manager'])
   const rows = await useModels().DemoMail.findAll({
+    where: { id: await demoMailIdsFor(caller) },
     attributes: ['id', 'envelopeFrom', 'envelopeTo', 'subject', 'createdAt'],
     order: [['id', 'DESC']],
     limit: 200,

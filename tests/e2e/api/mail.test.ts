@@ -227,6 +227,23 @@ describe('the demo mailbox', () => {
       expect(one.headers.filter(h => h.name === 'date')).toHaveLength(1)
       const handler = await signedInAt(demo.url, 'handler')
       expect((await fetch(`${demo.url}/api/mailbox`, { headers: { cookie: handler.header() } })).status).toBe(403)
+
+      // Each manager reads the mail of their own organisation's people only: Northfold's manager
+      // sees what went to her, not Larkspur's assistant's; Larkspur's does not see hers.
+      const northfoldSubject = `Northfold mailbox check ${run}`
+      await nodemailer.createTransport({ host: '127.0.0.1', port: smtpPort, secure: false, ignoreTLS: true })
+        .sendMail({ from: 'Bloomline <bloomline@larkspur.example>', to: 'corrie@northfold.example', subject: northfoldSubject, text: 'For Northfold' })
+      const northfold = await signedInAt(demo.url, 'corrie@northfold.example')
+      const read = async (jar: typeof manager, path = '') => fetch(`${demo.url}/api/mailbox${path}`, { headers: { cookie: jar.header() } })
+      const theirs = await (await read(northfold)).json() as DemoMailSummary[]
+      expect(theirs.map(m => m.subject)).toContain(northfoldSubject)
+      expect(theirs.map(m => m.subject)).not.toContain(subject)
+      expect((await read(northfold, `/${mine!.id}`)).status).toBe(404)
+      const ours = await (await read(manager)).json() as DemoMailSummary[]
+      expect(ours.map(m => m.subject)).not.toContain(northfoldSubject)
+      // Emptying is of one's own part only.
+      expect((await fetch(`${demo.url}/api/mailbox`, { method: 'DELETE', headers: { cookie: northfold.header() } })).status).toBe(200)
+      expect(((await (await read(manager)).json()) as DemoMailSummary[]).map(m => m.subject)).toContain(subject)
     }
     finally {
       await demo.stop()
