@@ -3,7 +3,6 @@ import * as m0002 from './0002-kennel'
 import * as m0003 from './0003-imports'
 import * as m0004 from './0004-calendar-feeds'
 import * as m0005 from './0005-mail'
-import * as m0006 from './0006-tenancy-keys'
 
 /** Every migration in order. A static list, not a glob, so Nitro can bundle them. */
 export const migrations = [
@@ -12,5 +11,4 @@ export const migrations = [
   { name: '0003-imports', ...m0003 },
   { name: '0004-calendar-feeds', ...m0004 },
   { name: '0005-mail', ...m0005 },
-  { name: '0006-tenancy-keys', ...m0006 },
 ]
