@@ -3,17 +3,14 @@
 // 5 entries a dog), serves the built app, and prints side by side (a) the raw SQL that fetches
 // the grid's rows through `pg`, (b) GET /api/grid over HTTP as the manager, and (c) the /grid page
 // in Chromium rendering and scrolling those rows, with its long tasks. A script, never a test.
-import { spawn, type ChildProcess } from 'node:child_process'
 import { randomBytes } from 'node:crypto'
-import { createServer } from 'node:net'
-import { dirname, join } from 'node:path'
 import { performance } from 'node:perf_hooks'
-import { fileURLToPath, pathToFileURL } from 'node:url'
 import bcrypt from 'bcryptjs'
 import pg from 'pg'
 import { chromium } from 'playwright-core'
 import { addDays, DEFAULT_PROFILE, type WorkKind } from '../shared/coat'
 import { todayInTimeZone } from '../server/utils/time'
+import { freePort, ms, onThrowawayDatabase, quantile, setup, signedInCookie, startApp, stopApp, type BenchDatabase } from './lib/benchApp'
 import { prng } from './lib/prng'
 
 const DOGS = 1_000
@@ -26,25 +23,6 @@ const TARGET_RATIO = 3
 const LONG_TASK_LIMIT_MS = 200
 const TIME_ZONE = 'Europe/London'
 const KEYS = DEFAULT_PROFILE.regions.map(r => r.key)
-
-interface Cluster { urlFor: (name: string) => string, startedHere: boolean, stop: () => void }
-interface SetupModule {
-  root: string
-  step: (text: string) => void
-  ensurePostgres: () => Promise<Cluster>
-  ensureDatabase: (adminUrl: string, name: string) => Promise<void>
-  dropDatabase: (adminUrl: string, name: string) => Promise<void>
-  setUpDatabase: (databaseUrl: string, options: { seed: boolean }) => void
-  buildIfStale: () => boolean
-  ensureChromium: () => string
-  serverEnv: (options: { port: number, databaseUrl: string, demoMode: boolean }) => NodeJS.ProcessEnv
-}
-
-// setup.mjs is plain Node with no type declarations (it runs before node_modules exists), so it
-// is loaded by URL and given its shape here.
-const here = dirname(fileURLToPath(import.meta.url))
-const setup = await import(pathToFileURL(join(here, 'lib', 'setup.mjs')).href) as SetupModule
-
 
 const random = prng(20260302)
 const int = (lo: number, hi: number) => lo + Math.floor(random() * (hi - lo + 1))
@@ -185,46 +163,6 @@ function gridSql(pool: pg.Pool, organisationId: number, today: string) {
   ])
 }
 
-function portIsFree(port: number): Promise<boolean> {
-  return new Promise((resolve) => {
-    const server = createServer()
-    server.once('error', () => resolve(false))
-    server.listen(port, '127.0.0.1', () => server.close(() => resolve(true)))
-  })
-}
-
-async function freePort(from: number): Promise<number> {
-  for (let port = from; port < from + 50; port++) if (await portIsFree(port)) return port
-  throw new Error(`No free port between ${from} and ${from + 49}`)
-}
-
-async function startApp(port: number, databaseUrl: string): Promise<ChildProcess> {
-  const entry = join(setup.root, '.output', 'server', 'index.mjs')
-  const child = spawn(process.execPath, [entry], { env: { ...setup.serverEnv({ port, databaseUrl, demoMode: false }), NODE_ENV: 'production' }, stdio: ['ignore', 'ignore', 'inherit'] })
-  const deadline = Date.now() + 30_000
-  while (Date.now() < deadline) {
-    if (child.exitCode !== null) throw new Error(`The app exited (code ${child.exitCode}) before it answered`)
-    try {
-      if ((await fetch(`http://127.0.0.1:${port}/api/health`)).ok) return child
-    }
-    catch {}
-    await new Promise(r => setTimeout(r, 200))
-  }
-  throw new Error(`The app did not answer on port ${port} within 30 s`)
-}
-
-async function stopApp(child: ChildProcess): Promise<void> {
-  if (child.exitCode !== null) return
-  const exited = new Promise(r => child.once('exit', r))
-  child.kill('SIGTERM')
-  await Promise.race([exited, new Promise(r => setTimeout(r, 5000))])
-}
-
-function quantile(values: number[], q: number): number {
-  const sorted = [...values].sort((a, b) => a - b)
-  return sorted[Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1)]!
-}
-
 async function timed(run: () => Promise<unknown>): Promise<number> {
   const start = performance.now()
   await run()
@@ -303,103 +241,78 @@ async function browseGrid(baseUrl: string, cookieHeader: string, executablePath:
   }
 }
 
-const ms = (value: number) => `${value.toFixed(1)} ms`
 const longest = (values: number[]) => (values.length ? ms(Math.max(...values)) : '-')
 
-async function main(): Promise<number> {
-  const cluster = await setup.ensurePostgres()
-  const adminUrl = cluster.urlFor('postgres')
-  const name = `bloomline_bench_${Date.now().toString(36)}_${process.pid}`
-  const databaseUrl = cluster.urlFor(name)
-  let app: ChildProcess | undefined
-  let pool: pg.Pool | undefined
+async function main({ name, databaseUrl, onEnd }: BenchDatabase): Promise<number> {
   let code = 0
-  try {
-    await setup.ensureDatabase(adminUrl, name)
-    setup.setUpDatabase(databaseUrl, { seed: false })
-    setup.step(`Generating ${DOGS.toLocaleString('en-GB')} dogs in ${name}…`)
-    const genStart = performance.now()
-    const data = await generate(databaseUrl)
-    setup.step(`Generated in ${((performance.now() - genStart) / 1000).toFixed(1)} s.`)
-    setup.buildIfStale()
-    const executablePath = setup.ensureChromium()
-    const port = await freePort(3950)
-    app = await startApp(port, databaseUrl)
-    const baseUrl = `http://localhost:${port}`
+  setup.step(`Generating ${DOGS.toLocaleString('en-GB')} dogs in ${name}…`)
+  const genStart = performance.now()
+  const data = await generate(databaseUrl)
+  setup.step(`Generated in ${((performance.now() - genStart) / 1000).toFixed(1)} s.`)
+  setup.buildIfStale()
+  const executablePath = setup.ensureChromium()
+  const port = await freePort(3950)
+  const app = await startApp(port, databaseUrl)
+  onEnd(() => stopApp(app))
+  const baseUrl = `http://localhost:${port}`
 
-    // The sign-in goes through next-auth's real endpoints, as tests/e2e/helpers/http.ts does it.
-    process.env.BLOOMLINE_TEST_PORT = String(port)
-    const { CookieJar, postCredentials } = await import('../tests/e2e/helpers/http')
-    const jar = new CookieJar()
-    const signIn = await postCredentials(jar, { email: data.email, password: data.password })
-    if (signIn.status !== 200) throw new Error(`Sign-in as the bench manager failed: ${signIn.status}`)
-    const cookie = jar.header()
+  const cookie = await signedInCookie(baseUrl, { email: data.email, password: data.password })
 
-    const first = await fetch(`${baseUrl}/api/grid`, { headers: { cookie } })
-    if (!first.ok) throw new Error(`GET /api/grid answered ${first.status}: ${(await first.text()).slice(0, 200)}`)
-    const body = await first.text()
-    const view = JSON.parse(body) as { rows: { show: unknown }[] }
-    if (view.rows.length !== DOGS) throw new Error(`GET /api/grid gave ${view.rows.length} rows, expected ${DOGS}`)
+  const first = await fetch(`${baseUrl}/api/grid`, { headers: { cookie } })
+  if (!first.ok) throw new Error(`GET /api/grid answered ${first.status}: ${(await first.text()).slice(0, 200)}`)
+  const body = await first.text()
+  const view = JSON.parse(body) as { rows: { show: unknown }[] }
+  if (view.rows.length !== DOGS) throw new Error(`GET /api/grid gave ${view.rows.length} rows, expected ${DOGS}`)
 
-    pool = new pg.Pool({ connectionString: databaseUrl, max: 4 })
-    const sqlRows = await gridSql(pool, data.organisationId, data.today)
-    const api = () => fetch(`${baseUrl}/api/grid`, { headers: { cookie } }).then(r => r.text())
-    const sql = () => gridSql(pool!, data.organisationId, data.today)
-    const times = { sql: [] as number[], api: [] as number[] }
-    setup.step(`Timing: ${WARM_UP} warm-up rounds, then ${SAMPLES} of each, interleaved…`)
-    for (let i = 0; i < WARM_UP + SAMPLES; i++) {
-      // Alternating which goes first keeps either from always running on a warmer cache.
-      const order: ('sql' | 'api')[] = i % 2 === 0 ? ['sql', 'api'] : ['api', 'sql']
-      for (const which of order) {
-        const t = await timed(which === 'sql' ? sql : api)
-        if (i >= WARM_UP) times[which].push(t)
-      }
-    }
-    const median = { sql: quantile(times.sql, 0.5), api: quantile(times.api, 0.5) }
-    const p90 = { sql: quantile(times.sql, 0.9), api: quantile(times.api, 0.9) }
-    const ratio = median.api / median.sql
-
-    const n = (value: number) => value.toLocaleString('en-GB')
-    const line = (label: string, a: string, b: string, c = '') => console.log(`${label.padEnd(44)}${a.padStart(10)}${b.padStart(10)}${c.padStart(9)}`.trimEnd())
-    console.log('')
-    console.log(`Bloomline grid bench: ${n(DOGS)} dogs, ${KEYS.length} regions, ${n(data.workRows)} coat work rows (${WORK_PER_DOG} a dog), ${n(data.entryRows)} entries (${ENTRIES_PER_DOG} a dog) in ${SHOWS} shows; one organisation, today ${data.today}`)
-    console.log(`rows the grid reads: ${n(sqlRows[0].rowCount ?? 0)} dogs, ${n(sqlRows[1].rowCount ?? 0)} profiles, ${n(sqlRows[2].rowCount ?? 0)} strip/layer work rows (not deleted), ${n(sqlRows[3].rowCount ?? 0)} next shows; /api/grid body ${n(Math.round(body.length / 1024))} KB`)
-    console.log('')
-    line('', 'median', 'p90', 'samples')
-    line('(a) raw SQL through pg, the grid\'s rows', ms(median.sql), ms(p90.sql), String(times.sql.length))
-    line('(b) GET /api/grid over HTTP, as manager', ms(median.api), ms(p90.api), String(times.api.length))
-    const ratioMet = ratio <= TARGET_RATIO
-    console.log(`${'(b) / (a), medians'.padEnd(44)}${`${ratio.toFixed(2)}×`.padStart(10)}   target ≤ ${TARGET_RATIO}×: ${ratioMet ? 'met' : 'MISSED'}`)
-    if (!ratioMet) code = 1
-
-    console.log('')
-    setup.step('Opening /grid in Chromium at 1280×800…')
-    const browsed = await browseGrid(baseUrl, cookie, executablePath)
-    if (browsed.skipped) {
-      console.log(`(c) Chromium: skipped, ${browsed.skipped}`)
-    }
-    else {
-      const all = [...browsed.render, ...browsed.scroll]
-      const over = all.filter(d => d > LONG_TASK_LIMIT_MS).length
-      console.log(`(c) Chromium 1280×800, /grid as manager: ${n(browsed.rows)} rows shown ${ms(browsed.renderMs)} after navigation; scrolled to the bottom in ${browsed.steps} steps, last row ${browsed.reachedEnd ? 'reached' : 'NOT reached'}`)
-      line('    long tasks (> 50 ms)', 'count', 'longest')
-      line('    loading and first render', String(browsed.render.length), longest(browsed.render))
-      line('    scrolling', String(browsed.scroll.length), longest(browsed.scroll))
-      console.log(`    target, no long task over ${LONG_TASK_LIMIT_MS} ms: ${over === 0 ? 'met' : `MISSED (${over} over)`}`)
-      if (over > 0 || !browsed.reachedEnd) code = 1
+  const pool = new pg.Pool({ connectionString: databaseUrl, max: 4 })
+  onEnd(() => pool.end())
+  const sqlRows = await gridSql(pool, data.organisationId, data.today)
+  const api = () => fetch(`${baseUrl}/api/grid`, { headers: { cookie } }).then(r => r.text())
+  const sql = () => gridSql(pool, data.organisationId, data.today)
+  const times = { sql: [] as number[], api: [] as number[] }
+  setup.step(`Timing: ${WARM_UP} warm-up rounds, then ${SAMPLES} of each, interleaved…`)
+  for (let i = 0; i < WARM_UP + SAMPLES; i++) {
+    // Alternating which goes first keeps either from always running on a warmer cache.
+    const order: ('sql' | 'api')[] = i % 2 === 0 ? ['sql', 'api'] : ['api', 'sql']
+    for (const which of order) {
+      const t = await timed(which === 'sql' ? sql : api)
+      if (i >= WARM_UP) times[which].push(t)
     }
   }
-  catch (error) {
-    console.error(`\n\x1b[31m✖\x1b[0m ${(error as Error).message}\n`)
-    code = 1
+  const median = { sql: quantile(times.sql, 0.5), api: quantile(times.api, 0.5) }
+  const p90 = { sql: quantile(times.sql, 0.9), api: quantile(times.api, 0.9) }
+  const ratio = median.api / median.sql
+
+  const n = (value: number) => value.toLocaleString('en-GB')
+  const line = (label: string, a: string, b: string, c = '') => console.log(`${label.padEnd(44)}${a.padStart(10)}${b.padStart(10)}${c.padStart(9)}`.trimEnd())
+  console.log('')
+  console.log(`Bloomline grid bench: ${n(DOGS)} dogs, ${KEYS.length} regions, ${n(data.workRows)} coat work rows (${WORK_PER_DOG} a dog), ${n(data.entryRows)} entries (${ENTRIES_PER_DOG} a dog) in ${SHOWS} shows; one organisation, today ${data.today}`)
+  console.log(`rows the grid reads: ${n(sqlRows[0].rowCount ?? 0)} dogs, ${n(sqlRows[1].rowCount ?? 0)} profiles, ${n(sqlRows[2].rowCount ?? 0)} strip/layer work rows (not deleted), ${n(sqlRows[3].rowCount ?? 0)} next shows; /api/grid body ${n(Math.round(body.length / 1024))} KB`)
+  console.log('')
+  line('', 'median', 'p90', 'samples')
+  line('(a) raw SQL through pg, the grid\'s rows', ms(median.sql), ms(p90.sql), String(times.sql.length))
+  line('(b) GET /api/grid over HTTP, as manager', ms(median.api), ms(p90.api), String(times.api.length))
+  const ratioMet = ratio <= TARGET_RATIO
+  console.log(`${'(b) / (a), medians'.padEnd(44)}${`${ratio.toFixed(2)}×`.padStart(10)}   target ≤ ${TARGET_RATIO}×: ${ratioMet ? 'met' : 'MISSED'}`)
+  if (!ratioMet) code = 1
+
+  console.log('')
+  setup.step('Opening /grid in Chromium at 1280×800…')
+  const browsed = await browseGrid(baseUrl, cookie, executablePath)
+  if (browsed.skipped) {
+    console.log(`(c) Chromium: skipped, ${browsed.skipped}`)
   }
-  finally {
-    await pool?.end()
-    if (app) await stopApp(app)
-    await setup.dropDatabase(adminUrl, name).catch(error => console.warn(`Could not drop ${name}: ${(error as Error).message}`))
-    if (cluster.startedHere) cluster.stop()
+  else {
+    const all = [...browsed.render, ...browsed.scroll]
+    const over = all.filter(d => d > LONG_TASK_LIMIT_MS).length
+    console.log(`(c) Chromium 1280×800, /grid as manager: ${n(browsed.rows)} rows shown ${ms(browsed.renderMs)} after navigation; scrolled to the bottom in ${browsed.steps} steps, last row ${browsed.reachedEnd ? 'reached' : 'NOT reached'}`)
+    line('    long tasks (> 50 ms)', 'count', 'longest')
+    line('    loading and first render', String(browsed.render.length), longest(browsed.render))
+    line('    scrolling', String(browsed.scroll.length), longest(browsed.scroll))
+    console.log(`    target, no long task over ${LONG_TASK_LIMIT_MS} ms: ${over === 0 ? 'met' : `MISSED (${over} over)`}`)
+    if (over > 0 || !browsed.reachedEnd) code = 1
   }
   return code
 }
 
-process.exit(await main())
+process.exit(await onThrowawayDatabase('bloomline_bench', main))

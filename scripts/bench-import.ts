@@ -9,18 +9,15 @@
 // streamed through pg's COPY protocol in 64 KB chunks. Prints medians, the ratio (c) / (d) and
 // (c) by step, from the commit's own Server-Timing header. BLOOMLINE_BENCH_PROFILE=<folder>
 // also writes the server's CPU profile there.
-import { spawn, type ChildProcess } from 'node:child_process'
 import { randomBytes } from 'node:crypto'
-import { createServer } from 'node:net'
-import { dirname, join } from 'node:path'
 import { performance } from 'node:perf_hooks'
-import { fileURLToPath, pathToFileURL } from 'node:url'
 import bcrypt from 'bcryptjs'
 import pg from 'pg'
 import { addDays, type ISODate } from '../shared/coat'
 import { toCsv } from '../shared/csv'
 import { buildImportPreview, IMPORT_FIELD_LABELS, IMPORT_FIELDS, proposeMapping, readImportFile, type ImportContext, type ImportField, type Ref, type RowPlan } from '../shared/import'
 import { todayInTimeZone } from '../server/utils/time'
+import { freePort, median, ms, onThrowawayDatabase, setup, signedInCookie, startApp, stopApp, type BenchDatabase } from './lib/benchApp'
 import { prng } from './lib/prng'
 
 const ROWS = 10_000
@@ -34,23 +31,6 @@ const TIME_ZONE = 'Europe/London'
 const COPY_CHUNK = 64 * 1024
 // Adult classes of the KC rule set (shared/coat/eligibility.ts), so no row is too young or too old.
 const CLASSES = ['Open', 'Limit', 'Post Graduate', 'Graduate', 'Novice', 'Mid Limit']
-
-interface Cluster { urlFor: (name: string) => string, startedHere: boolean, stop: () => void }
-interface SetupModule {
-  root: string
-  step: (text: string) => void
-  ensurePostgres: () => Promise<Cluster>
-  ensureDatabase: (adminUrl: string, name: string) => Promise<void>
-  dropDatabase: (adminUrl: string, name: string) => Promise<void>
-  setUpDatabase: (databaseUrl: string, options: { seed: boolean }) => void
-  buildIfStale: () => boolean
-  serverEnv: (options: { port: number, databaseUrl: string, demoMode: boolean }) => NodeJS.ProcessEnv
-}
-
-// setup.mjs is plain Node with no type declarations (it runs before node_modules exists), so it
-// is loaded by URL and given its shape here, as scripts/bench-grid.ts does.
-const here = dirname(fileURLToPath(import.meta.url))
-const setup = await import(pathToFileURL(join(here, 'lib', 'setup.mjs')).href) as SetupModule
 
 const random = prng(20261201)
 const int = (lo: number, hi: number) => lo + Math.floor(random() * (hi - lo + 1))
@@ -204,164 +184,100 @@ async function insertFloor(client: pg.Client, organisationId: number, plans: rea
   return time
 }
 
-function portIsFree(port: number): Promise<boolean> {
-  return new Promise((resolve) => {
-    const server = createServer()
-    server.once('error', () => resolve(false))
-    server.listen(port, '127.0.0.1', () => server.close(() => resolve(true)))
-  })
-}
-
-async function freePort(from: number): Promise<number> {
-  for (let port = from; port < from + 50; port++) if (await portIsFree(port)) return port
-  throw new Error(`No free port between ${from} and ${from + 49}`)
-}
-
-async function startApp(port: number, databaseUrl: string): Promise<ChildProcess> {
-  const entry = join(setup.root, '.output', 'server', 'index.mjs')
+async function main({ name, databaseUrl, onEnd }: BenchDatabase): Promise<number> {
+  const client = new pg.Client({ connectionString: databaseUrl })
+  await client.connect()
+  onEnd(() => client.end())
+  const data = await generate(client)
+  const csv = entryList(data.today, data.handlerEmails)
+  const bytes = Buffer.from(csv, 'utf8')
+  const body = JSON.stringify({ fileName: 'bench-entries.csv', contentBase64: bytes.toString('base64') })
+  const commitBody = JSON.stringify({ fileName: 'bench-entries.csv', contentBase64: bytes.toString('base64'), commit: true })
+  setup.step(`Generated a ${ROWS.toLocaleString('en-GB')}-row entry list (${(bytes.length / 1024 / 1024).toFixed(2)} MB) in ${name}.`)
+  setup.buildIfStale()
+  const port = await freePort(3970)
   // BLOOMLINE_BENCH_PROFILE=<folder> writes the server's CPU profile there when it stops, to see where a commit's time goes.
-  const profile = process.env.BLOOMLINE_BENCH_PROFILE ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BLOOMLINE_BENCH_PROFILE}`] : []
-  const child = spawn(process.execPath, [...profile, entry], { env: { ...setup.serverEnv({ port, databaseUrl, demoMode: false }), NODE_ENV: 'production' }, stdio: ['ignore', 'ignore', 'inherit'] })
-  const deadline = Date.now() + 30_000
-  while (Date.now() < deadline) {
-    if (child.exitCode !== null) throw new Error(`The app exited (code ${child.exitCode}) before it answered`)
-    try {
-      if ((await fetch(`http://127.0.0.1:${port}/api/health`)).ok) return child
+  const app = await startApp(port, databaseUrl, { cpuProfileDir: process.env.BLOOMLINE_BENCH_PROFILE })
+  onEnd(() => stopApp(app))
+  const baseUrl = `http://localhost:${port}`
+  const headers = { 'cookie': await signedInCookie(baseUrl, { email: data.email, password: data.password }), 'content-type': 'application/json' }
+
+  const times = { engine: [] as number[], preview: [] as number[], commit: [] as number[], copy: [] as number[], floor: [] as number[] }
+  // The commit's own Server-Timing steps, to show where its time goes.
+  const steps = new Map<string, number[]>()
+  let counts: Record<string, number> = {}
+  let answerBytes = 0
+  setup.step(`Timing: ${WARM_UP} warm-up round, then ${SAMPLES}; each round on an emptied organisation…`)
+  for (let round = 0; round < WARM_UP + SAMPLES; round++) {
+    await reset(client, data.organisationId)
+    const keep = round >= WARM_UP
+
+    let start = performance.now()
+    const parsed = readImportFile(new Uint8Array(bytes))
+    const context = await importContext(client, data.organisationId, data.today)
+    const local = buildImportPreview(parsed, context, { mapping: proposeMapping(parsed.headers) })
+    const engine = performance.now() - start
+    if (local.counts.withErrors || local.counts.newEntries !== ROWS) throw new Error(`The engine's preview found ${local.counts.withErrors} rows with errors and ${local.counts.newEntries} new entries`)
+
+    start = performance.now()
+    const previewRes = await fetch(`${baseUrl}/api/imports`, { method: 'POST', headers, body })
+    await previewRes.text()
+    const preview = performance.now() - start
+    if (previewRes.status !== 200) throw new Error(`POST /api/imports answered ${previewRes.status}`)
+
+    start = performance.now()
+    const commitRes = await fetch(`${baseUrl}/api/imports/commit`, { method: 'POST', headers, body: commitBody })
+    const committed = await commitRes.text()
+    const commit = performance.now() - start
+    if (commitRes.status !== 201) throw new Error(`POST /api/imports/commit answered ${commitRes.status}: ${committed.slice(0, 300)}`)
+    counts = (JSON.parse(committed) as { counts: Record<string, number> }).counts
+    const serverSteps = (commitRes.headers.get('server-timing') ?? '').split(',').map(p => p.trim().match(/^([\w.-]+);dur=([\d.]+)$/)).filter(m => m !== null)
+    answerBytes = Buffer.byteLength(committed)
+    const written = await client.query<{ n: string }>('SELECT count(*) AS n FROM entries WHERE organisation_id = $1', [data.organisationId])
+    if (Number(written.rows[0]!.n) !== ROWS) throw new Error(`The commit wrote ${written.rows[0]!.n} entries, not ${ROWS}`)
+
+    start = performance.now()
+    const copied = await copyFrom(client, 'COPY bench_import_scratch FROM STDIN WITH (FORMAT csv, HEADER true)', Buffer.from(csv.replace(/^\uFEFF/, ''), 'utf8'))
+    const copy = performance.now() - start
+    if (copied !== ROWS) throw new Error(`COPY reported ${copied} rows, not ${ROWS}`)
+
+    // The organisation emptied again (untimed), so (e) writes into the state (c) wrote into.
+    await reset(client, data.organisationId)
+    const floor = await insertFloor(client, data.organisationId, local.rows.map(r => r.plan!))
+
+    if (keep) {
+      times.floor.push(floor)
+      times.engine.push(engine)
+      times.preview.push(preview)
+      times.commit.push(commit)
+      times.copy.push(copy)
+      for (const [, name, dur] of serverSteps) steps.set(name!, [...(steps.get(name!) ?? []), Number(dur)])
+      // A name with a dot is a part of a step, given on its own; the steps alone add up to the handler's time.
+      const server = serverSteps.filter(m => !m[1]!.includes('.')).reduce((sum, m) => sum + Number(m[2]), 0)
+      steps.set('(outside the handler: HTTP, JSON of the answer)', [...(steps.get('(outside the handler: HTTP, JSON of the answer)') ?? []), commit - server])
     }
-    catch {}
-    await new Promise(r => setTimeout(r, 200))
   }
-  throw new Error(`The app did not answer on port ${port} within 30 s`)
+
+  const m = { engine: median(times.engine), preview: median(times.preview), commit: median(times.commit), copy: median(times.copy), floor: median(times.floor) }
+  const ratio = m.commit / m.copy
+  const n = (value: number) => value.toLocaleString('en-GB')
+  const line = (label: string, a: string, b: string) => console.log(`${label.padEnd(64)}${a.padStart(11)}${b.padStart(9)}`.trimEnd())
+  console.log('')
+  console.log(`Bloomline import bench: ${n(ROWS)} entry rows (${n(DOGS)} dogs × ${SHOWS_PER_DOG} of ${SHOWS} shows, ${IMPORT_FIELDS.length} columns, ${(bytes.length / 1024 / 1024).toFixed(2)} MB), KC rule set, today ${data.today}`)
+  console.log(`commit wrote: ${n(counts.newDogs ?? 0)} dogs, ${n(counts.newShows ?? 0)} shows, ${n(counts.newEntries ?? 0)} entries, in one transaction; its JSON answer ${(answerBytes / 1024 / 1024).toFixed(2)} MB`)
+  console.log('')
+  line('', 'median', 'samples')
+  line('(a) parse + preview, shared/import engine in-process', ms(m.engine), String(times.engine.length))
+  line('(b) parse + preview, POST /api/imports over HTTP', ms(m.preview), String(times.preview.length))
+  line('(c) commit, POST /api/imports/commit over HTTP', ms(m.commit), String(times.commit.length))
+  line('(d) PostgreSQL COPY FROM STDIN, same rows, scratch table', ms(m.copy), String(times.copy.length))
+  line('(e) the same rows INSERTed straight into dogs/shows/entries', ms(m.floor), String(times.floor.length))
+  const met = ratio <= TARGET_RATIO
+  console.log(`${'(c) / (d), medians'.padEnd(64)}${`${ratio.toFixed(2)}×`.padStart(11)}   target ≤ ${TARGET_RATIO}×: ${met ? 'met' : 'MISSED'}`)
+  console.log(`${'(e) / (d): the database alone, keys, indexes and foreign keys'.padEnd(64)}${`${(m.floor / m.copy).toFixed(2)}×`.padStart(11)}   (c) − (e): ${ms(m.commit - m.floor)}`)
+  if (steps.size) console.log(`(c) by step, medians (Server-Timing): ${[...steps].map(([step, values]) => `${step} ${median(values).toFixed(1)}`).join(', ')}`)
+  console.log(`samples (ms): a ${times.engine.map(t => t.toFixed(0)).join(', ')}; b ${times.preview.map(t => t.toFixed(0)).join(', ')}; c ${times.commit.map(t => t.toFixed(0)).join(', ')}; d ${times.copy.map(t => t.toFixed(0)).join(', ')}; e ${times.floor.map(t => t.toFixed(0)).join(', ')}`)
+  return met ? 0 : 1
 }
 
-async function stopApp(child: ChildProcess): Promise<void> {
-  if (child.exitCode !== null) return
-  const exited = new Promise(r => child.once('exit', r))
-  child.kill('SIGTERM')
-  await Promise.race([exited, new Promise(r => setTimeout(r, 5000))])
-}
-
-const median = (values: number[]) => [...values].sort((a, b) => a - b)[Math.floor((values.length - 1) / 2)]!
-const ms = (value: number) => `${value.toFixed(1)} ms`
-
-async function main(): Promise<number> {
-  const cluster = await setup.ensurePostgres()
-  const adminUrl = cluster.urlFor('postgres')
-  const name = `bloomline_bench_import_${Date.now().toString(36)}_${process.pid}`
-  const databaseUrl = cluster.urlFor(name)
-  let app: ChildProcess | undefined
-  let client: pg.Client | undefined
-  let code = 0
-  try {
-    await setup.ensureDatabase(adminUrl, name)
-    setup.setUpDatabase(databaseUrl, { seed: false })
-    client = new pg.Client({ connectionString: databaseUrl })
-    await client.connect()
-    const data = await generate(client)
-    const csv = entryList(data.today, data.handlerEmails)
-    const bytes = Buffer.from(csv, 'utf8')
-    const body = JSON.stringify({ fileName: 'bench-entries.csv', contentBase64: bytes.toString('base64') })
-    const commitBody = JSON.stringify({ fileName: 'bench-entries.csv', contentBase64: bytes.toString('base64'), commit: true })
-    setup.step(`Generated a ${ROWS.toLocaleString('en-GB')}-row entry list (${(bytes.length / 1024 / 1024).toFixed(2)} MB) in ${name}.`)
-    setup.buildIfStale()
-    const port = await freePort(3970)
-    app = await startApp(port, databaseUrl)
-    const baseUrl = `http://localhost:${port}`
-    process.env.BLOOMLINE_TEST_PORT = String(port)
-    const { CookieJar, postCredentials } = await import('../tests/e2e/helpers/http')
-    const jar = new CookieJar()
-    const signIn = await postCredentials(jar, { email: data.email, password: data.password })
-    if (signIn.status !== 200) throw new Error(`Sign-in as the bench manager failed: ${signIn.status}`)
-    const headers = { 'cookie': jar.header(), 'content-type': 'application/json' }
-
-    const times = { engine: [] as number[], preview: [] as number[], commit: [] as number[], copy: [] as number[], floor: [] as number[] }
-    // The commit's own Server-Timing steps, to show where its time goes.
-    const steps = new Map<string, number[]>()
-    let counts: Record<string, number> = {}
-    let answerBytes = 0
-    setup.step(`Timing: ${WARM_UP} warm-up round, then ${SAMPLES}; each round on an emptied organisation…`)
-    for (let round = 0; round < WARM_UP + SAMPLES; round++) {
-      await reset(client, data.organisationId)
-      const keep = round >= WARM_UP
-
-      let start = performance.now()
-      const parsed = readImportFile(new Uint8Array(bytes))
-      const context = await importContext(client, data.organisationId, data.today)
-      const local = buildImportPreview(parsed, context, { mapping: proposeMapping(parsed.headers) })
-      const engine = performance.now() - start
-      if (local.counts.withErrors || local.counts.newEntries !== ROWS) throw new Error(`The engine's preview found ${local.counts.withErrors} rows with errors and ${local.counts.newEntries} new entries`)
-
-      start = performance.now()
-      const previewRes = await fetch(`${baseUrl}/api/imports`, { method: 'POST', headers, body })
-      await previewRes.text()
-      const preview = performance.now() - start
-      if (previewRes.status !== 200) throw new Error(`POST /api/imports answered ${previewRes.status}`)
-
-      start = performance.now()
-      const commitRes = await fetch(`${baseUrl}/api/imports/commit`, { method: 'POST', headers, body: commitBody })
-      const committed = await commitRes.text()
-      const commit = performance.now() - start
-      if (commitRes.status !== 201) throw new Error(`POST /api/imports/commit answered ${commitRes.status}: ${committed.slice(0, 300)}`)
-      counts = (JSON.parse(committed) as { counts: Record<string, number> }).counts
-      const serverSteps = (commitRes.headers.get('server-timing') ?? '').split(',').map(p => p.trim().match(/^([\w.-]+);dur=([\d.]+)$/)).filter(m => m !== null)
-      answerBytes = Buffer.byteLength(committed)
-      const written = await client.query<{ n: string }>('SELECT count(*) AS n FROM entries WHERE organisation_id = $1', [data.organisationId])
-      if (Number(written.rows[0]!.n) !== ROWS) throw new Error(`The commit wrote ${written.rows[0]!.n} entries, not ${ROWS}`)
-
-      start = performance.now()
-      const copied = await copyFrom(client, 'COPY bench_import_scratch FROM STDIN WITH (FORMAT csv, HEADER true)', Buffer.from(csv.replace(/^\uFEFF/, ''), 'utf8'))
-      const copy = performance.now() - start
-      if (copied !== ROWS) throw new Error(`COPY reported ${copied} rows, not ${ROWS}`)
-
-      // The organisation emptied again (untimed), so (e) writes into the state (c) wrote into.
-      await reset(client, data.organisationId)
-      const floor = await insertFloor(client, data.organisationId, local.rows.map(r => r.plan!))
-
-      if (keep) {
-        times.floor.push(floor)
-        times.engine.push(engine)
-        times.preview.push(preview)
-        times.commit.push(commit)
-        times.copy.push(copy)
-        for (const [, name, dur] of serverSteps) steps.set(name!, [...(steps.get(name!) ?? []), Number(dur)])
-        // A name with a dot is a part of a step, given on its own; the steps alone add up to the handler's time.
-        const server = serverSteps.filter(m => !m[1]!.includes('.')).reduce((sum, m) => sum + Number(m[2]), 0)
-        steps.set('(outside the handler: HTTP, JSON of the answer)', [...(steps.get('(outside the handler: HTTP, JSON of the answer)') ?? []), commit - server])
-      }
-    }
-
-    const m = { engine: median(times.engine), preview: median(times.preview), commit: median(times.commit), copy: median(times.copy), floor: median(times.floor) }
-    const ratio = m.commit / m.copy
-    const n = (value: number) => value.toLocaleString('en-GB')
-    const line = (label: string, a: string, b: string) => console.log(`${label.padEnd(64)}${a.padStart(11)}${b.padStart(9)}`.trimEnd())
-    console.log('')
-    console.log(`Bloomline import bench: ${n(ROWS)} entry rows (${n(DOGS)} dogs × ${SHOWS_PER_DOG} of ${SHOWS} shows, ${IMPORT_FIELDS.length} columns, ${(bytes.length / 1024 / 1024).toFixed(2)} MB), KC rule set, today ${data.today}`)
-    console.log(`commit wrote: ${n(counts.newDogs ?? 0)} dogs, ${n(counts.newShows ?? 0)} shows, ${n(counts.newEntries ?? 0)} entries, in one transaction; its JSON answer ${(answerBytes / 1024 / 1024).toFixed(2)} MB`)
-    console.log('')
-    line('', 'median', 'samples')
-    line('(a) parse + preview, shared/import engine in-process', ms(m.engine), String(times.engine.length))
-    line('(b) parse + preview, POST /api/imports over HTTP', ms(m.preview), String(times.preview.length))
-    line('(c) commit, POST /api/imports/commit over HTTP', ms(m.commit), String(times.commit.length))
-    line('(d) PostgreSQL COPY FROM STDIN, same rows, scratch table', ms(m.copy), String(times.copy.length))
-    line('(e) the same rows INSERTed straight into dogs/shows/entries', ms(m.floor), String(times.floor.length))
-    const met = ratio <= TARGET_RATIO
-    console.log(`${'(c) / (d), medians'.padEnd(64)}${`${ratio.toFixed(2)}×`.padStart(11)}   target ≤ ${TARGET_RATIO}×: ${met ? 'met' : 'MISSED'}`)
-    console.log(`${'(e) / (d): the database alone, keys, indexes and foreign keys'.padEnd(64)}${`${(m.floor / m.copy).toFixed(2)}×`.padStart(11)}   (c) − (e): ${ms(m.commit - m.floor)}`)
-    if (steps.size) console.log(`(c) by step, medians (Server-Timing): ${[...steps].map(([step, values]) => `${step} ${median(values).toFixed(1)}`).join(', ')}`)
-    console.log(`samples (ms): a ${times.engine.map(t => t.toFixed(0)).join(', ')}; b ${times.preview.map(t => t.toFixed(0)).join(', ')}; c ${times.commit.map(t => t.toFixed(0)).join(', ')}; d ${times.copy.map(t => t.toFixed(0)).join(', ')}; e ${times.floor.map(t => t.toFixed(0)).join(', ')}`)
-    if (!met) code = 1
-  }
-  catch (error) {
-    console.error(`\n\x1b[31m✖\x1b[0m ${(error as Error).message}\n`)
-    code = 1
-  }
-  finally {
-    await client?.end()
-    if (app) await stopApp(app)
-    await setup.dropDatabase(adminUrl, name).catch(error => console.warn(`Could not drop ${name}: ${(error as Error).message}`))
-    if (cluster.startedHere) cluster.stop()
-  }
-  return code
-}
-
-process.exit(await main())
+process.exit(await onThrowawayDatabase('bloomline_bench_import', main))

@@ -1,6 +1,7 @@
 import { performance } from 'node:perf_hooks'
 import { addDays, assessDog, DEFAULT_PROFILE, planWorkBack } from '../shared/coat'
 import type { CoatWork, WorkKind } from '../shared/coat'
+import { median } from './lib/benchApp'
 import { prng } from './lib/prng'
 
 // Times the coat model the way the coat grid and the weekly status use it: assessDog for
@@ -56,11 +57,6 @@ function runOnce(dogs: Dog[]): number {
   // Keeps the work observable so the engine cannot drop it.
   if (sink < 0) console.log(sink)
   return ms
-}
-
-function median(values: number[]): number {
-  const sorted = [...values].sort((a, b) => a - b)
-  return sorted[Math.floor(sorted.length / 2)]!
 }
 
 const small = makeDogs(1_000, 1)

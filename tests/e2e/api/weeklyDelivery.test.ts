@@ -6,8 +6,8 @@ import type { DogSummary } from '../../../shared/types/kennel'
 import type { TaskView } from '../../../shared/types/tasks'
 import type { WeeklyPreviewView, WeeklyRecipientsView, WeeklySendResult } from '../../../shared/types/weekly'
 import { addIsoWeeks, isoWeekMonday, isoWeekNumber } from '../../../shared/weekly'
-import { CookieJar, request } from '../helpers/http'
-import { startInstance } from '../helpers/instance'
+import { request, type CookieJar } from '../helpers/http'
+import { signedInAt, startInstance } from '../helpers/instance'
 import { startSmtp, type ReceivedMail } from '../helpers/smtp'
 import { cloneDemo, signedInAs, weeklyBackOn, weeklyOnlyFor, type ClonePerson, type DemoClone } from '../helpers/weeklyOrg'
 
@@ -91,22 +91,6 @@ function dogsInText(text: string): { name: string, readiness: string }[] {
   const unentered = section.find(l => l.startsWith('Not entered in a show: '))
   for (const name of unentered?.slice('Not entered in a show: '.length).split(', ') ?? []) listed.push({ name, readiness: 'no show ahead' })
   return listed
-}
-
-/** A cookie jar signed in on another instance, through its own sign-in endpoints. */
-async function signInAt(url: string, person: ClonePerson): Promise<CookieJar> {
-  const jar = new CookieJar()
-  const csrf = await fetch(`${url}/api/auth/csrf`)
-  jar.take(csrf)
-  const { csrfToken } = await csrf.json() as { csrfToken: string }
-  const res = await fetch(`${url}/api/auth/callback/credentials`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/x-www-form-urlencoded', 'cookie': jar.header() },
-    body: new URLSearchParams({ email: person.email, password: person.password, csrfToken, json: 'true' }).toString(),
-    redirect: 'manual',
-  })
-  jar.take(res)
-  return jar
 }
 
 const word = (name: string) => new RegExp(`\\b${name.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}\\b`)
@@ -300,7 +284,7 @@ describe('two workers and a restart during a scheduled run', () => {
       first = await startInstance(base + 1, cron)
 
       // "Send now" on both instances at the same moment: the week is already queued, so nothing new.
-      const jars = await Promise.all([first.url, second.url].map(url => signInAt(url, clone.person('manager'))))
+      const jars = await Promise.all([first.url, second.url].map(url => signedInAt(url, clone.person('manager'))))
       const raced = await Promise.all([first.url, second.url].map(async (url, i) => {
         const res = await fetch(`${url}/api/weekly/send-now`, { method: 'POST', headers: { 'content-type': 'application/json', 'cookie': jars[i]!.header() }, body: '{}' })
         return { status: res.status, body: await res.text() }

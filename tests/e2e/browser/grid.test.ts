@@ -2,19 +2,15 @@ import { readFile } from 'node:fs/promises'
 import { join } from 'node:path'
 import { format, parseISO } from 'date-fns'
 import Papa from 'papaparse'
-import { afterEach, beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, describe, expect, it } from 'vitest'
 import { addDays, DEFAULT_PROFILE, REGION_STATES } from '../../../shared/coat'
 import { STATE_LOOKS } from '../../../shared/states'
 import type { DogView, GridCell, GridRow, GridView, ShowView } from '../../../shared/types/kennel'
 import type { MemberView } from '../../../shared/types/organisation'
-import { accessibilityProblems, openBrowser, screenshot, screenshotDir, signInThroughForm, type Page } from '../helpers/browser'
+import { accessibilityProblems, browserPerTest, gotoHydrated, screenshot, screenshotDir, signInThroughForm, type Page } from '../helpers/browser'
 import { baseUrl, demoAccount, request, signedIn, type CookieJar } from '../helpers/http'
 
-let close: (() => Promise<void>) | undefined
-afterEach(async () => {
-  await close?.()
-  close = undefined
-})
+const open = browserPerTest('grid')
 
 // Every dog, show and breed below is invented for the test; a run-unique tag keeps runs apart.
 const tag = Date.now().toString(36).slice(-6)
@@ -94,10 +90,14 @@ async function activeCell(page: Page) {
   return page.evaluate(() => (document.activeElement as HTMLElement | null)?.dataset.cell ?? null)
 }
 
-async function openGridAs(page: Page, who: string) {
+async function signIn(page: Page, who: string) {
   await signInThroughForm(page, who)
   await page.waitForURL(`${baseUrl}/`)
-  await page.goto(`${baseUrl}/grid`)
+}
+
+async function openGridAs(page: Page, who: string) {
+  await signIn(page, who)
+  await gotoHydrated(page, `${baseUrl}/grid`)
   await page.getByTestId('coat-grid').waitFor()
 }
 
@@ -111,9 +111,7 @@ describe('the coat grid in Chromium', () => {
     const mine = ourRows(view)
     expect(mine).toHaveLength(3)
 
-    const browser = await openBrowser('desktop')
-    close = browser.close
-    const { page } = browser
+    const page = await open('desktop')
     await openGridAs(page, 'manager')
     await expect.poll(() => page.locator('[role="row"][data-dog]').count()).toBeGreaterThan(0)
     expect(await page.getByTestId('grid-legend').locator('[data-state]').evaluateAll(items => items.map(i => i.getAttribute('data-state')))).toEqual(expect.arrayContaining([...REGION_STATES]))
@@ -244,9 +242,7 @@ describe('the coat grid in Chromium', () => {
     expect(ids).toContain(fixture.dogs.tended.id)
     expect(ids).not.toContain(fixture.dogs.late.id)
 
-    const browser = await openBrowser('desktop')
-    close = browser.close
-    const { page } = browser
+    const page = await open('desktop')
     await openGridAs(page, 'handler')
     await expect.poll(() => page.locator('[role="row"][data-dog]').count()).toBeGreaterThan(0)
     expect(await allRowDogIds(page)).toEqual(ids)
@@ -254,9 +250,7 @@ describe('the coat grid in Chromium', () => {
   })
 
   it('works on a phone: the dog column stays put while the regions scroll sideways', async () => {
-    const browser = await openBrowser('phone')
-    close = browser.close
-    const { page } = browser
+    const page = await open('phone')
     await openGridAs(page, 'manager')
     await page.getByTestId('grid-search').fill(tag)
     await expect.poll(() => page.locator('[role="row"][data-dog]').count()).toBe(3)
@@ -283,11 +277,8 @@ describe('the coat grid in Chromium', () => {
   })
 
   it('says what to do when there are no dogs, and when none is entered in a show ahead', async () => {
-    const browser = await openBrowser('desktop')
-    close = browser.close
-    const { page } = browser
-    await signInThroughForm(page, 'manager')
-    await page.waitForURL(`${baseUrl}/`)
+    const page = await open('desktop')
+    await signIn(page, 'manager')
     const noEntries = syntheticGrid(4, fixture.today)
     noEntries.rows.forEach((row) => { row.show = null; row.score = null; row.onTrack = null })
     let answer: GridView = { ...syntheticGrid(0, fixture.today) }
@@ -311,16 +302,13 @@ describe('the coat grid in Chromium', () => {
   })
 
   it('renders and scrolls 1,000 dogs with the header and dog column staying put (long tasks printed, timed by npm run bench)', async () => {
-    const browser = await openBrowser('desktop')
-    close = browser.close
-    const { page } = browser
+    const page = await open('desktop')
     await page.addInitScript(() => {
       const w = window as unknown as { longTasks: number[] }
       w.longTasks = []
       new PerformanceObserver(list => list.getEntries().forEach(e => w.longTasks.push(e.duration))).observe({ type: 'longtask', buffered: true })
     })
-    await signInThroughForm(page, 'manager')
-    await page.waitForURL(`${baseUrl}/`)
+    await signIn(page, 'manager')
     const thousand = syntheticGrid(1000, fixture.today)
     await page.route('**/api/grid**', route => route.fulfill({ json: thousand }))
     await page.evaluate(() => { (window as unknown as { longTasks: number[] }).longTasks = [] })

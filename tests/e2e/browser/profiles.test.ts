@@ -1,17 +1,13 @@
-import { afterEach, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { addDays } from '../../../shared/coat'
 import type { ProfileView } from '../../../shared/types/kennel'
-import { accessibilityProblems, openBrowser, screenshot, signInThroughForm } from '../helpers/browser'
+import { accessibilityProblems, browserPerTest, gotoHydrated, screenshot, signInThroughForm } from '../helpers/browser'
 import { baseUrl, request, signedIn } from '../helpers/http'
 
 // Saving and refreshing take a few requests; a second is not always enough on a busy machine.
 const until = <T>(read: () => T | Promise<T>) => expect.poll(read, { timeout: 10_000 })
 
-let close: (() => Promise<void>) | undefined
-afterEach(async () => {
-  await close?.()
-  close = undefined
-})
+const open = browserPerTest('profiles')
 
 async function profiles(): Promise<ProfileView[]> {
   const res = await request(await signedIn('manager'), '/api/profiles')
@@ -27,12 +23,10 @@ describe('coat profiles in Chromium', () => {
     const grow = neck.growDays + 9
     const label = `Larkspur slow neck ${Date.now().toString(36)}`
 
-    const browser = await openBrowser('desktop')
-    close = browser.close
-    const { page } = browser
+    const page = await open('desktop')
     await signInThroughForm(page, 'manager')
     await page.waitForURL(`${baseUrl}/`)
-    await page.goto(`${baseUrl}/profiles`)
+    await gotoHydrated(page, `${baseUrl}/profiles`)
     const item = page.locator(`[data-testid="profile-item"][data-profile="${fallback.id}"]`)
     expect(await item.textContent()).toMatch(/Default/)
     expect(await item.getByTestId('profile-dog-count').textContent()).toBe(String(fallback.dogCount))

@@ -38,9 +38,9 @@ export async function startInstance(port: number, env: Record<string, string | u
   }
 }
 
-/** A cookie jar signed in as a demo account on another instance, through its own next-auth endpoints. */
-export async function signedInAt(url: string, roleOrEmail: Role | string) {
-  const account = demoAccount(roleOrEmail)
+/** A cookie jar signed in on another instance through its own next-auth endpoints, as a demo account (role or e-mail) or as anyone by e-mail and password; throws if the sign-in fails. */
+export async function signedInAt(url: string, who: Role | string | { email: string, password: string }) {
+  const account = typeof who === 'string' ? demoAccount(who) : who
   const jar = new CookieJar()
   const csrf = await fetch(`${url}/api/auth/csrf`)
   jar.take(csrf)
