@@ -241,6 +241,21 @@ describe('the demo mailbox', () => {
       expect((await read(northfold, `/${mine!.id}`)).status).toBe(404)
       const ours = await (await read(manager)).json() as DemoMailSummary[]
       expect(ours.map(m => m.subject)).not.toContain(northfoldSubject)
+      // A message the outbox sent for Larkspur, to someone of both organisations, is Larkspur's
+      // alone: found by its Message-ID (RFC 5322 §3.6.4), it stays out of Northfold's part.
+      const sharedSubject = `Larkspur-only weekly check ${run}`
+      const messageId = `<mailbox-scope-${run}@larkspur.example>`
+      const { rows: [sent] } = await db.query(`INSERT INTO mail_outbox (organisation_id, recipient_email, kind, period_key, subject, html, text, message_id, status)
+        VALUES ($1, 'maren@larkspur.example', 'weekly_status', $2, $3, '<p>Larkspur</p>', 'Larkspur', $4, 'sent') RETURNING id`, [organisationId, `mailbox-scope-${run}`, sharedSubject, messageId])
+      try {
+        await nodemailer.createTransport({ host: '127.0.0.1', port: smtpPort, secure: false, ignoreTLS: true })
+          .sendMail({ from: 'Bloomline <bloomline@larkspur.example>', to: 'maren@larkspur.example', subject: sharedSubject, text: 'Larkspur', messageId })
+        expect(((await (await read(manager)).json()) as DemoMailSummary[]).map(m => m.subject)).toContain(sharedSubject)
+        expect(((await (await read(northfold)).json()) as DemoMailSummary[]).map(m => m.subject)).not.toContain(sharedSubject)
+      }
+      finally {
+        await db.query('DELETE FROM mail_outbox WHERE id = $1', [sent.id])
+      }
       // Emptying is of one's own part only.
       expect((await fetch(`${demo.url}/api/mailbox`, { method: 'DELETE', headers: { cookie: northfold.header() } })).status).toBe(200)
       expect(((await (await read(manager)).json()) as DemoMailSummary[]).map(m => m.subject)).toContain(subject)
