@@ -2,7 +2,6 @@
 // the setup of `npm start` with its shape, a free port, the app started and stopped, a sign-in,
 // and the figures they print.
 import { spawn, type ChildProcess } from 'node:child_process'
-import { createServer } from 'node:net'
 import { dirname, join } from 'node:path'
 import { fileURLToPath, pathToFileURL } from 'node:url'
 import { signedInAt } from '../../tests/e2e/helpers/instance'
@@ -18,21 +17,14 @@ interface SetupModule {
   buildIfStale: () => boolean
   ensureChromium: () => string
   serverEnv: (options: { port: number, databaseUrl: string, demoMode: boolean }) => NodeJS.ProcessEnv
+  portIsFree: (port: number) => Promise<boolean>
 }
 
 // setup.mjs is plain Node with no type declarations (it runs before node_modules exists), so it
 // is loaded by URL and given its shape here.
 const here = dirname(fileURLToPath(import.meta.url))
-/** scripts/lib/setup.mjs, typed: the private PostgreSQL cluster, databases, the build, Chromium and the server's environment. */
+/** scripts/lib/setup.mjs, typed: the private PostgreSQL cluster, databases, the build, Chromium, the server's environment and a port check. */
 export const setup = await import(pathToFileURL(join(here, 'setup.mjs')).href) as SetupModule
-
-function portIsFree(port: number): Promise<boolean> {
-  return new Promise((resolve) => {
-    const server = createServer()
-    server.once('error', () => resolve(false))
-    server.listen(port, '127.0.0.1', () => server.close(() => resolve(true)))
-  })
-}
 
 /** What a bench gets from `onThrowawayDatabase`: its database, and a way to close what it opens before the database is dropped. */
 export interface BenchDatabase { name: string, databaseUrl: string, onEnd: (close: () => Promise<unknown>) => void }
@@ -65,7 +57,7 @@ export async function onThrowawayDatabase(prefix: string, bench: (database: Benc
 
 /** The first port from `from` on (50 tried) that nothing listens on at 127.0.0.1. */
 export async function freePort(from: number): Promise<number> {
-  for (let port = from; port < from + 50; port++) if (await portIsFree(port)) return port
+  for (let port = from; port < from + 50; port++) if (await setup.portIsFree(port)) return port
   throw new Error(`No free port between ${from} and ${from + 49}`)
 }
 

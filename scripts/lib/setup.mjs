@@ -58,7 +58,8 @@ function pgBinDir() {
   return null
 }
 
-function portIsFree(port) {
+/** Whether nothing listens on `port` at 127.0.0.1, found by listening there for a moment. */
+export function portIsFree(port) {
   return new Promise((resolve) => {
     const server = createServer()
     server.once('error', () => resolve(false))

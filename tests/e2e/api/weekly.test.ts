@@ -4,7 +4,7 @@ import type { MemberView } from '../../../shared/types/organisation'
 import type { UnsubscribeLookupView, WeeklyPreviewView, WeeklyRecipientsView, WeeklySendResult, WeeklySettingsView, WeeklySubscriptionView } from '../../../shared/types/weekly'
 import { isoWeekRange } from '../../../shared/weekly'
 import { request, signedIn, type CookieJar } from '../helpers/http'
-import { cloneDemo, signedInAs, type DemoClone } from '../helpers/weeklyOrg'
+import { cloneDemo, type DemoClone } from '../helpers/weeklyOrg'
 
 // The weekly-status routes: who may call them, what they refuse, and what they answer. Each
 // part that sends works on its own copy of the invented demo (seeders/), so no other test's mail
@@ -16,7 +16,7 @@ let manager: CookieJar
 
 beforeAll(async () => {
   clone = await cloneDemo(`wk-api-${run}`)
-  manager = await signedInAs(clone.person('manager'))
+  manager = await signedIn(clone.person('manager'))
 })
 
 afterAll(async () => {
@@ -203,7 +203,7 @@ describe('send now', () => {
 
   it('two requests at the same moment queue each member once between them', async () => {
     const other = await cloneDemo(`wk-race-${run}`)
-    const jar = await signedInAs(other.person('manager'))
+    const jar = await signedIn(other.person('manager'))
     const both = await Promise.all([1, 2].map(() => json<WeeklySendResult>(jar, '/api/weekly/send-now', { method: 'POST', json: {} })))
     const queued = both.flatMap(b => b.body.results.filter(r => r.outcome === 'queued').map(r => r.email))
     expect(queued.sort()).toEqual([other.person('manager').email, other.person('tobias@larkspur.example').email, other.person('ines@larkspur.example').email].sort())
@@ -275,7 +275,7 @@ describe('unsubscribe links', () => {
 
   it('an unsubscribed member is not sent this week\'s status by "send now"', async () => {
     const other = await cloneDemo(`wk-unsub-${run}`)
-    const jar = await signedInAs(other.person('manager'))
+    const jar = await signedIn(other.person('manager'))
     const tobias = other.person('tobias@larkspur.example')
     const preview = await json<WeeklyPreviewView>(jar, `/api/weekly/preview?userId=${tobias.userId}`)
     const path = preview.body.headers['List-Unsubscribe']!.replace(/^<https?:\/\/[^/]+|>$/g, '')
@@ -289,7 +289,7 @@ describe('unsubscribe links', () => {
 describe('my own subscription', () => {
   it('any member reads and changes their own, and a manager sees it on the list', async () => {
     const ines = clone.person('ines@larkspur.example')
-    const jar = await signedInAs(ines)
+    const jar = await signedIn(ines)
     const settings = (await json<WeeklySettingsView>(manager, '/api/weekly/settings')).body
     // What the person is told of the sending is the organisation's own settings, read back.
     expect((await json<WeeklySubscriptionView>(jar, '/api/weekly/subscription')).body).toEqual({
@@ -309,7 +309,7 @@ describe('my own subscription', () => {
   })
 
   it('tells an assistant whether their role gets it at all, as the organisation\'s setting says', async () => {
-    const jar = await signedInAs(clone.person('pip@larkspur.example'))
+    const jar = await signedIn(clone.person('pip@larkspur.example'))
     const before = (await json<WeeklySettingsView>(manager, '/api/weekly/settings')).body
     for (const toAssistants of [true, false]) {
       expect((await json(manager, '/api/weekly/settings', { method: 'PATCH', json: { toAssistants } })).status).toBe(200)

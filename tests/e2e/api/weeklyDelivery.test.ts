@@ -6,10 +6,10 @@ import type { DogSummary } from '../../../shared/types/kennel'
 import type { TaskView } from '../../../shared/types/tasks'
 import type { WeeklyPreviewView, WeeklyRecipientsView, WeeklySendResult } from '../../../shared/types/weekly'
 import { addIsoWeeks, isoWeekMonday, isoWeekNumber } from '../../../shared/weekly'
-import { request, type CookieJar } from '../helpers/http'
+import { request, signedIn, type CookieJar } from '../helpers/http'
 import { signedInAt, startInstance } from '../helpers/instance'
 import { startSmtp, type ReceivedMail } from '../helpers/smtp'
-import { cloneDemo, signedInAs, weeklyBackOn, weeklyOnlyFor, type ClonePerson, type DemoClone } from '../helpers/weeklyOrg'
+import { cloneDemo, weeklyBackOn, weeklyOnlyFor, type ClonePerson, type DemoClone } from '../helpers/weeklyOrg'
 
 // The weekly status end to end, over a real SMTP server on loopback (smtp-server, parsed with
 // mailparser). Each part works on its own copy of the invented demo kennel (seeders/), so no
@@ -107,7 +107,7 @@ describe('the weekly status for a handler', () => {
 
   beforeAll(async () => {
     clone = await cloneDemo(`wd-a-${run}`)
-    manager = await signedInAs(clone.person('manager'))
+    manager = await signedIn(clone.person('manager'))
     week = await currentWeek(manager)
     preview = await json<WeeklyPreviewView>(manager, `/api/weekly/preview?userId=${clone.person('tobias@larkspur.example').userId}`)
     // What the cron does each minute, for this organisation only.
@@ -118,7 +118,7 @@ describe('the weekly status for a handler', () => {
 
   it('holds exactly the dogs the API lets that handler see, with the same readiness', async () => {
     const person = clone.person('tobias@larkspur.example')
-    const jar = await signedInAs(person)
+    const jar = await signedIn(person)
     const [mine, everyDog, tasks] = await Promise.all([
       json<DogSummary[]>(jar, '/api/dogs'),
       json<DogSummary[]>(manager, '/api/dogs?status=all'),
@@ -192,7 +192,7 @@ describe('with the SMTP server stopped', () => {
 
   beforeAll(async () => {
     clone = await cloneDemo(`wd-c-${run}`)
-    manager = await signedInAs(clone.person('manager'))
+    manager = await signedIn(clone.person('manager'))
     week = await currentWeek(manager)
   })
 
@@ -257,7 +257,7 @@ describe('with the SMTP server stopped', () => {
 describe('two workers and a restart during a scheduled run', () => {
   it('send exactly one weekly status per recipient and week', { timeout: 240_000 }, async () => {
     const clone = await cloneDemo(`wd-b-${run}`, { toAssistants: true })
-    const manager = await signedInAs(clone.person('manager'))
+    const manager = await signedIn(clone.person('manager'))
     const week = await currentWeek(manager)
     // Everyone of the kennel and of the club copy: managers, handlers and (turned on) assistants;
     // one of them is in both, and gets one message from each.

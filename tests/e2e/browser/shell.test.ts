@@ -1,13 +1,9 @@
-import { afterEach, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { SIGN_IN_FAILED } from '../../../shared/auth'
-import { accessibilityProblems, openBrowser, screenshot, signInThroughForm, type Page } from '../helpers/browser'
+import { accessibilityProblems, browserPerTest, gotoHydrated, screenshot, signInThroughForm, type Page } from '../helpers/browser'
 import { baseUrl } from '../helpers/http'
 
-let close: (() => Promise<void>) | undefined
-afterEach(async () => {
-  await close?.()
-  close = undefined
-})
+const open = browserPerTest('shell')
 
 async function navLabels(page: Page) {
   return page.locator('nav[aria-label="Main"] a').allInnerTexts().then(texts => texts.map(t => t.trim()))
@@ -15,10 +11,8 @@ async function navLabels(page: Page) {
 
 describe('the app shell in Chromium', () => {
   it('sends a visitor to the sign-in page, and a wrong password gets the shared message', async () => {
-    const browser = await openBrowser('desktop')
-    close = browser.close
-    const { page } = browser
-    await page.goto(`${baseUrl}/team`)
+    const page = await open('desktop')
+    await gotoHydrated(page, `${baseUrl}/team`)
     await page.waitForURL(/\/signin/)
     await screenshot(page, 'signin-desktop')
     expect(await accessibilityProblems(page)).toEqual([])
@@ -27,9 +21,7 @@ describe('the app shell in Chromium', () => {
   })
 
   it.each(['desktop', 'phone'] as const)('a manager sees every section, changes nothing by looking, and signs out (%s)', async (viewport) => {
-    const browser = await openBrowser(viewport)
-    close = browser.close
-    const { page } = browser
+    const page = await open(viewport)
     await signInThroughForm(page, 'manager')
     await page.waitForURL(`${baseUrl}/`)
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toMatch(/Good (morning|afternoon|evening), Maren/)
@@ -53,14 +45,12 @@ describe('the app shell in Chromium', () => {
     if (viewport === 'phone') await page.getByTestId('menu-toggle').click()
     await page.getByTestId('sign-out').click()
     await page.waitForURL(/\/signin/)
-    await page.goto(`${baseUrl}/`)
+    await gotoHydrated(page, `${baseUrl}/`)
     await page.waitForURL(/\/signin/)
   })
 
   it.each(['desktop', 'phone'] as const)('an assistant sees their own work first and no team or settings (%s)', async (viewport) => {
-    const browser = await openBrowser(viewport)
-    close = browser.close
-    const { page } = browser
+    const page = await open(viewport)
     await signInThroughForm(page, 'assistant')
     await page.waitForURL(`${baseUrl}/`)
     await expect.poll(() => page.getByTestId('tasks-now').isVisible()).toBe(true)
@@ -70,14 +60,12 @@ describe('the app shell in Chromium', () => {
     if (viewport === 'phone') await page.getByTestId('menu-toggle').click()
     expect(await navLabels(page)).toEqual(['My tasks', 'Home', 'Dogs'])
     // The page is refused in the browser, and the data behind it by the server.
-    await page.goto(`${baseUrl}/team`)
+    await gotoHydrated(page, `${baseUrl}/team`)
     await page.waitForURL(`${baseUrl}/`)
   })
 
   it('a user of two organisations picks one and works there', async () => {
-    const browser = await openBrowser('desktop')
-    close = browser.close
-    const { page } = browser
+    const page = await open('desktop')
     await signInThroughForm(page, 'manager')
     await page.waitForURL(`${baseUrl}/`)
     await page.getByRole('link', { name: 'Switch organisation' }).click()

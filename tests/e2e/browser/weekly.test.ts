@@ -4,9 +4,9 @@ import { closeSequelize } from '../../../server/database/connection'
 import type { WeeklyPreviewView, WeeklySendResult } from '../../../shared/types/weekly'
 import { isoWeekNumber } from '../../../shared/weekly'
 import { accessibilityProblems, browserPerTest, gotoHydrated, screenshot, screenshotDir, type Page } from '../helpers/browser'
-import { baseUrl, request, type CookieJar } from '../helpers/http'
+import { baseUrl, request, signedIn, type CookieJar } from '../helpers/http'
 import { linkIn, startSmtp, type ReceivedMail } from '../helpers/smtp'
-import { cloneDemo, signedInAs, type ClonePerson, type DemoClone } from '../helpers/weeklyOrg'
+import { cloneDemo, type ClonePerson, type DemoClone } from '../helpers/weeklyOrg'
 
 // The weekly status as people see it: the HTML part rendering in Chromium as a mail client's
 // web view would, the manager's weekly page with its preview and "send now", and the
@@ -22,7 +22,7 @@ beforeAll(async () => {
   smtp = await startSmtp()
   // A short tag: the organisation's name shows in the navigation, and the copy's should fit it as the demo's does.
   clone = await cloneDemo('ui')
-  manager = await signedInAs(clone.person('manager'))
+  manager = await signedIn(clone.person('manager'))
   // The manager's and one handler's status, sent now through the outbox to the test's SMTP server.
   for (const person of [clone.person('manager'), clone.person('tobias@larkspur.example')]) {
     const res = await request(manager, '/api/weekly/send-now', { method: 'POST', json: { userId: person.userId } })

@@ -58,9 +58,9 @@ export function demoAccount(roleOrEmail: Role | string) {
   return account
 }
 
-/** A cookie jar signed in as a demo account; throws if the sign-in fails. */
-export async function signedIn(roleOrEmail: Role | string) {
-  const account = demoAccount(roleOrEmail)
+/** A cookie jar signed in as a demo account (role or e-mail) or as anyone by e-mail and password; throws if the sign-in fails. */
+export async function signedIn(who: Role | string | { email: string, password: string }) {
+  const account = typeof who === 'string' ? demoAccount(who) : who
   const jar = new CookieJar()
   const res = await postCredentials(jar, { email: account.email, password: account.password })
   const { url } = await res.json() as { url: string }

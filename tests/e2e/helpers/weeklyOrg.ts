@@ -3,7 +3,6 @@ import { getSequelize } from '../../../server/database/connection'
 import { initModels } from '../../../server/database/models'
 import { DEMO_ACCOUNTS, DEMO_ORGANISATIONS } from '../../../seeders/accounts'
 import { seedKennel } from '../../../seeders/kennel'
-import { CookieJar, postCredentials } from './http'
 
 // The weekly status is one message per person and ISO week, so a test that sends it cannot share
 // the demo kennel with another test (or with a cron tick) that may already have sent this week's.
@@ -80,15 +79,6 @@ export async function cloneDemo(tag: string, options: { toAssistants?: boolean }
       return found
     },
   }
-}
-
-/** A cookie jar signed in as a person of a copy, through the real sign-in endpoints. */
-export async function signedInAs(person: Pick<ClonePerson, 'email' | 'password'>): Promise<CookieJar> {
-  const jar = new CookieJar()
-  const res = await postCredentials(jar, { email: person.email, password: person.password })
-  const { url } = await res.json() as { url: string }
-  if (res.status !== 200 || new URL(url).searchParams.get('error')) throw new Error(`Sign-in as ${person.email} failed: ${res.status} ${url}`)
-  return jar
 }
 
 /** Turns the weekly status off for every organisation but `keep`, so a cron tick in a test sends nothing to them; returns the ids it turned off. */
