@@ -1,7 +1,7 @@
 import type { CoatProfile, ISODate, RegionProfile, Unreachable } from './types'
 
-// Joins words as people write them: "a", "a and b", "a, b and c".
-function listWords(words: readonly string[]): string {
+/** Joins words as people write them: "a", "a and b", "a, b and c". */
+export function listWords(words: readonly string[]): string {
   if (words.length <= 1) return words[0] ?? ''
   return `${words.slice(0, -1).join(', ')} and ${words[words.length - 1]}`
 }

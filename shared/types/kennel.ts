@@ -210,4 +210,9 @@ export interface AuditEventView {
   at: string
   before: Record<string, unknown> | null
   after: Record<string, unknown> | null
+  /** The names of the people `before` and `after` name by id (AUDIT_PERSON_FIELDS), by user id. */
+  people: Record<string, string>
 }
+
+/** The fields of an audited row that name a person by user id. */
+export const AUDIT_PERSON_FIELDS = ['workedById', 'recordedById', 'deletedById', 'assigneeId', 'createdById', 'handlerId'] as const

@@ -426,6 +426,9 @@ describe('the audit trail of a task', () => {
 
     const history = await ok<AuditEventView[]>(p.handler, `/api/dogs/${dog.id}/history`, 'GET')
     expect(history.filter(e => e.entity === 'task' && e.entityId === task.id).map(e => e.action)).toEqual(['delete', 'update', 'update', 'update', 'create'])
+    // The rows name people by id; the history gives their names with them (seeders/accounts.ts).
+    const givenRow = history.find(e => e.entity === 'task' && e.entityId === task.id && e.action === 'update' && e.after?.status === 'open' && e.before?.assigneeId === null)
+    expect(givenRow?.people[p.ids.assistant]).toBe('Pip Adeyemi-Rowe')
     const assistantsView = await ok<AuditEventView[]>(p.assistant, `/api/dogs/${dog.id}/history`, 'GET')
     expect(assistantsView.some(e => e.entity === 'task')).toBe(false)
   })

@@ -1,4 +1,4 @@
-import type { AuditEventView } from '../../../../shared/types/kennel'
+import { AUDIT_PERSON_FIELDS, type AuditEventView } from '../../../../shared/types/kennel'
 
 /** The recorded changes to a dog's coat work (and, for managers and handlers, to its record and its tasks), newest first. */
 export default defineEventHandler(async (event): Promise<AuditEventView[]> => {
@@ -14,8 +14,33 @@ export default defineEventHandler(async (event): Promise<AuditEventView[]> => {
        OR (:withDog AND a.entity = 'task' AND (a.before->>'dogId' = :dogKey OR a.after->>'dogId' = :dogKey)))
      ORDER BY a.id DESC LIMIT 500`,
     { organisationId: caller.organisationId, dogKey: String(id), dogId: id, withDog: caller.role !== 'assistant' })
+  // The names of the people the rows name by id (who did the work, who has the task, the
+  // handler), so the page can say "gave it to Pip" without a member list an assistant may not read.
+  const ids = new Set<number>()
+  for (const r of rows) {
+    for (const side of [r.before, r.after]) {
+      for (const field of AUDIT_PERSON_FIELDS) {
+        const value = side?.[field]
+        if (typeof value === 'number') ids.add(value)
+      }
+    }
+  }
+  const names = ids.size
+    ? new Map((await selectRows<{ id: number, name: string }>(kennelSequelize(), 'SELECT id, name FROM users WHERE id IN (:ids)', { ids: [...ids] })).map(u => [u.id, u.name]))
+    : new Map<number, string>()
+  const peopleOf = (r: (typeof rows)[number]) => {
+    const people: Record<string, string> = {}
+    for (const side of [r.before, r.after]) {
+      for (const field of AUDIT_PERSON_FIELDS) {
+        const value = side?.[field]
+        if (typeof value === 'number' && names.has(value)) people[value] = names.get(value)!
+      }
+    }
+    return people
+  }
   return rows.map(r => ({
     id: Number(r.id),
+    people: peopleOf(r),
     entity: r.entity,
     entityId: r.entityId,
     action: r.action,
