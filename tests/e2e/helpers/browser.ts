@@ -37,7 +37,8 @@ export async function openBrowser(viewport: keyof typeof VIEWPORTS = 'desktop') 
 /** Signs in through the sign-in form, as a person would, and waits for the home page. */
 export async function signInThroughForm(page: Page, roleOrEmail: Role | string, password?: string) {
   const account = demoAccount(roleOrEmail)
-  await page.goto(`${baseUrl}/signin`)
+  // Hydrated first: a field filled before Vue listens would leave its model empty.
+  await gotoHydrated(page, `${baseUrl}/signin`)
   await page.getByLabel('E-mail').fill(account.email)
   await page.getByLabel('Password').fill(password ?? account.password)
   await page.getByRole('button', { name: 'Sign in' }).click()
