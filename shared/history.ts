@@ -16,7 +16,7 @@ const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/
 function wordsFor(event: AuditEventView, regionLabel: (key: string) => string) {
   const person = (id: unknown) => (typeof id === 'number' ? event.people[id] ?? 'a former member' : 'no one')
   const date = (value: unknown) => (typeof value === 'string' && ISO_DATE.test(value) ? dayWords(value as ISODate) : 'no date')
-  const kind = (value: unknown) => WORK_KIND_LABELS[value as WorkKind]?.word.toLowerCase() ?? String(value)
+  const kind = (value: unknown) => (typeof value === 'string' ? WORK_KIND_LABELS[value as WorkKind]?.word.toLowerCase() ?? value : 'coat-work')
   const regions = (value: unknown) => (Array.isArray(value) && value.length ? listWords(value.map(k => regionLabel(String(k)))) : 'no region')
   const text = (value: unknown) => (value === null || value === undefined || value === '' ? 'none' : `“${String(value)}”`)
   const minutes = (value: unknown) => (typeof value === 'number' ? `${value} min` : 'none')
@@ -140,8 +140,15 @@ function describeTask(event: AuditEventView, actor: string, w: Words): HistoryLi
       return { text: `${actor} deleted ${what}`, changes: [] }
     default: {
       const verb = taskVerb(before.status, after.status)
+      const changes = changesOf(before, after, TASK_FIELDS, w)
+      // Giving a task to someone, or moving it, alone reads as one sentence.
+      const only = (field: string) => verb === 'changed' && changes.length === 1 && !same(before[field], after[field])
+      if (only('assigneeId')) {
+        return { text: typeof after.assigneeId === 'number' ? `${actor} gave ${what}, to ${w.person(after.assigneeId)}` : `${actor} took ${what}, off ${w.person(before.assigneeId)}`, changes: [] }
+      }
+      if (only('dueDate')) return { text: `${actor} moved ${what}, to ${w.date(after.dueDate)}`, changes: [] }
       const reason = verb === 'skipped' && after.skipReason ? `: ${w.text(after.skipReason)}` : ''
-      return { text: `${actor} ${verb} ${what}${reason}`, changes: changesOf(before, after, TASK_FIELDS, w) }
+      return { text: `${actor} ${verb} ${what}${reason}`, changes }
     }
   }
 }

@@ -64,6 +64,12 @@ describe('tasks in words', () => {
       text: 'Maren Oakhurst changed the layer task on Neck and Rear, due Thu 31 Dec 2026',
       changes: ['Given to: no one → Pip Adeyemi-Rowe', 'Due: Thu 31 Dec 2026 → Mon 4 Jan 2027'],
     })
+    expect(describeAuditEvent(event({ entity: 'task', action: 'update', before: task, after: { ...task, assigneeId: 3 }, people }), label))
+      .toEqual({ text: 'Maren Oakhurst gave the layer task on Neck and Rear, due Thu 31 Dec 2026, to Pip Adeyemi-Rowe', changes: [] })
+    expect(describeAuditEvent(event({ entity: 'task', action: 'update', before: { ...task, assigneeId: 3 }, after: task, people }), label).text)
+      .toBe('Maren Oakhurst took the layer task on Neck and Rear, due Thu 31 Dec 2026, off Pip Adeyemi-Rowe')
+    expect(describeAuditEvent(event({ entity: 'task', action: 'update', before: task, after: { ...task, dueDate: '2027-01-04' } }), label).text)
+      .toBe('Maren Oakhurst moved the layer task on Neck and Rear, due Thu 31 Dec 2026, to Mon 4 Jan 2027')
     const step = (from: string, to: string, extra: Record<string, unknown> = {}) =>
       describeAuditEvent(event({ entity: 'task', action: 'update', actor: { id: 3, name: 'Pip Adeyemi-Rowe' }, before: { ...task, status: from }, after: { ...task, status: to, ...extra } }), label)
     expect(step('open', 'in-progress').text).toMatch(/^Pip Adeyemi-Rowe started the layer task/)
@@ -75,6 +81,7 @@ describe('tasks in words', () => {
 
   it('someone no longer in the organisation, or no actor at all, still reads', () => {
     const line = describeAuditEvent(event({ entity: 'task', action: 'update', actor: null, before: task, after: { ...task, assigneeId: 42 } }), label)
-    expect(line).toEqual({ text: 'Someone changed the layer task on Neck and Rear, due Thu 31 Dec 2026', changes: ['Given to: no one → a former member'] })
+    expect(line).toEqual({ text: 'Someone gave the layer task on Neck and Rear, due Thu 31 Dec 2026, to a former member', changes: [] })
+    expect(describeAuditEvent(event({ entity: 'task', action: 'update', before: null, after: null }), label).text).toBe('Maren Oakhurst changed the coat-work task on no region, due no date')
   })
 })
