@@ -14,7 +14,7 @@ const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/
 
 /** Reads audit rows in words. `regionLabel` names a region key of the dog's profile. */
 function wordsFor(event: AuditEventView, regionLabel: (key: string) => string) {
-  const person = (id: unknown) => (typeof id === 'number' ? event.people[id] ?? 'a former member' : 'no one')
+  const person = (id: unknown) => (typeof id === 'number' ? event.people?.[id] ?? 'a former member' : 'no one')
   const date = (value: unknown) => (typeof value === 'string' && ISO_DATE.test(value) ? dayWords(value as ISODate) : 'no date')
   const kind = (value: unknown) => (typeof value === 'string' ? WORK_KIND_LABELS[value as WorkKind]?.word.toLowerCase() ?? value : 'coat-work')
   const regions = (value: unknown) => (Array.isArray(value) && value.length ? listWords(value.map(k => regionLabel(String(k)))) : 'no region')

@@ -1,7 +1,7 @@
-/** Empties the manager's part of the demo mailbox (what the list shows them). Managers, demo mode only. */
+/** Removes what the manager's organisation sent from the demo mailbox; shared mail (password resets, outside mail) stays. Managers, demo mode only. */
 export default defineEventHandler(async (event) => {
   requireDemoMode()
   const caller = await requireCaller(event, ['manager'])
-  const removed = await useModels().DemoMail.destroy({ where: { id: await demoMailIdsFor(caller, { limit: 100_000 }) } })
+  const removed = await useModels().DemoMail.destroy({ where: { id: await demoMailIdsFor(caller, { limit: 100_000, own: true }) } })
   return { removed }
 })

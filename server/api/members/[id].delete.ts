@@ -15,10 +15,16 @@ export default defineEventHandler(async (event) => {
     if (member.role === 'manager' && managerCount <= 1) {
       throw conflict('The organisation needs at least one manager: make someone else a manager before removing this one.')
     }
-    await Task.update(
-      { assigneeId: null },
-      { where: { organisationId: caller.organisationId, assigneeId: member.userId, status: { [Op.in]: ['open', 'in-progress'] } }, transaction },
-    )
+    // Each task taken off them is a task change like any other, so each is in the audit trail.
+    const tasks = await Task.findAll({
+      attributes: ['id'],
+      where: { organisationId: caller.organisationId, assigneeId: member.userId, status: { [Op.in]: ['open', 'in-progress'] } },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    })
+    for (const { id: taskId } of tasks) {
+      await auditedTaskChange(caller, taskId, 'update', transaction, () => Task.update({ assigneeId: null }, { where: { id: taskId }, transaction }))
+    }
     await member.destroy({ transaction })
     // A weekly status still waiting for them holds the kennel's news: withdraw it.
     await cancelWaitingMail({ organisationId: caller.organisationId, kind: 'weekly_status', recipientEmail: member.user!.email })

@@ -314,6 +314,9 @@ describe('changing a role or removing a member', () => {
     expect(await memberByEmail(manager, 'roles.rae@guests.example')).toBeUndefined()
     const after = await (await request(manager, `/api/tasks/${task.id}`)).json() as { assignee: unknown }
     expect(after.assignee).toBeNull()
+    // Taking the task off them is in the task's audit trail, by the manager who removed them.
+    const { rows: audit } = await db.query(`SELECT action, before->>'assigneeId' AS was, after->>'assigneeId' AS now FROM audit_events WHERE entity = 'task' AND entity_id = $1 ORDER BY id`, [task.id])
+    expect(audit.map(r => [r.action, r.was, r.now])).toEqual([['create', null, String(member.userId)], ['update', String(member.userId), null]])
     expect((await request(manager, `/api/tasks/${task.id}`, { method: 'DELETE' })).status).toBe(204)
     expect((await request(manager, `/api/members/${member.id}`, { method: 'DELETE' })).status).toBe(404)
   })

@@ -256,9 +256,27 @@ describe('the demo mailbox', () => {
       finally {
         await db.query('DELETE FROM mail_outbox WHERE id = $1', [sent.id])
       }
-      // Emptying is of one's own part only.
+      // Mail of no organisation goes to members only, never to invitees: inviting an address must
+      // not let a manager read that person's password reset (OWASP ASVS 5.0 V6.4, "authentication
+      // factor lifecycle and recovery"; from memory).
+      const invited = await fetch(`${demo.url}/api/invitations`, { method: 'POST', headers: { 'cookie': northfold.header(), 'content-type': 'application/json' }, body: JSON.stringify({ email: 'pip@larkspur.example', role: 'assistant' }) })
+      expect(invited.status).toBe(201)
+      const resetSubject = `A reset link for Pip ${run}`
+      await nodemailer.createTransport({ host: '127.0.0.1', port: smtpPort, secure: false, ignoreTLS: true })
+        .sendMail({ from: 'Bloomline <bloomline@larkspur.example>', to: 'pip@larkspur.example', subject: resetSubject, text: 'Reset' })
+      expect(((await (await read(northfold)).json()) as DemoMailSummary[]).map(m => m.subject)).not.toContain(resetSubject)
+      expect(((await (await read(manager)).json()) as DemoMailSummary[]).map(m => m.subject)).toContain(resetSubject)
+      const { invitation } = await invited.json() as { invitation: { id: number } }
+      await fetch(`${demo.url}/api/invitations/${invitation.id}`, { method: 'DELETE', headers: { cookie: northfold.header() } })
+
+      // Emptying removes only what one's own organisation sent: mail to Maren, of both, stays for Larkspur.
+      const sharedOutside = `For Maren of both ${run}`
+      await nodemailer.createTransport({ host: '127.0.0.1', port: smtpPort, secure: false, ignoreTLS: true })
+        .sendMail({ from: 'Bloomline <bloomline@larkspur.example>', to: 'maren@larkspur.example', subject: sharedOutside, text: 'Both' })
+      expect(((await (await read(northfold)).json()) as DemoMailSummary[]).map(m => m.subject)).toContain(sharedOutside)
       expect((await fetch(`${demo.url}/api/mailbox`, { method: 'DELETE', headers: { cookie: northfold.header() } })).status).toBe(200)
-      expect(((await (await read(manager)).json()) as DemoMailSummary[]).map(m => m.subject)).toContain(subject)
+      const larkspurAfter = ((await (await read(manager)).json()) as DemoMailSummary[]).map(m => m.subject)
+      expect(larkspurAfter).toEqual(expect.arrayContaining([subject, sharedOutside]))
     }
     finally {
       await demo.stop()

@@ -315,6 +315,10 @@ describe('my own subscription', () => {
       expect((await json(manager, '/api/weekly/settings', { method: 'PATCH', json: { toAssistants } })).status).toBe(200)
       expect((await json<WeeklySubscriptionView>(jar, '/api/weekly/subscription')).body.sentToRole).toBe(toAssistants && before.enabled)
     }
-    await json(manager, '/api/weekly/settings', { method: 'PATCH', json: { toAssistants: before.toAssistants } })
+    // With the weekly status off, no role gets it, a handler neither.
+    const handler = await signedIn(clone.person('ines@larkspur.example'))
+    expect((await json(manager, '/api/weekly/settings', { method: 'PATCH', json: { enabled: false } })).status).toBe(200)
+    expect((await json<WeeklySubscriptionView>(handler, '/api/weekly/subscription')).body).toMatchObject({ sentToRole: false, nextSendAt: null })
+    await json(manager, '/api/weekly/settings', { method: 'PATCH', json: { toAssistants: before.toAssistants, enabled: before.enabled } })
   })
 })

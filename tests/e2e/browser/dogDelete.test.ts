@@ -89,6 +89,8 @@ describe('deleting a dog from its page', () => {
     await confirm.click()
     await page.waitForURL(`${baseUrl}/dogs`)
     await expect.poll(() => page.getByTestId('dog-deleted').textContent()).toMatch(`${dog.callName} was deleted.`)
+    // The list has drawn (its count is there) before it is read for the dog.
+    await page.getByTestId('dog-count').waitFor()
     expect(await page.locator(`[data-dog="${dog.callName}"]`).count()).toBe(0)
     expect((await request(manager, `/api/dogs/${dog.id}`)).status).toBe(404)
     // Shown once: back on the list later, the sentence is gone.

@@ -210,6 +210,8 @@ describe('the weekly e-mail card on the home page', () => {
     await page.getByTestId('weekly-mail-stop').click()
     await expect.poll(() => page.getByTestId('weekly-mail-state').textContent()).toContain('You stopped it on')
     expect(await listed()).toBe(true)
+    // The one button changes its words, so focus stays where the person clicked.
+    expect(await page.evaluate(() => document.activeElement?.getAttribute('data-testid'))).toBe('weekly-mail-start')
     await card.scrollIntoViewIfNeeded()
     expect(await accessibilityProblems(page)).toEqual([])
     expect(await overflowsSideways(page)).toBe(false)
