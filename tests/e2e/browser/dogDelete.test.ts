@@ -4,6 +4,7 @@ import type { CoatWorkLogItem, DogView } from '../../../shared/types/kennel'
 import type { MemberView } from '../../../shared/types/organisation'
 import { accessibilityProblems, browserPerTest, gotoHydrated, screenshot, signInThroughForm, type Page } from '../helpers/browser'
 import { baseUrl, demoAccount, request, signedIn, type CookieJar } from '../helpers/http'
+import { ok } from '../helpers/kennelApi'
 
 const open = browserPerTest('dog-delete')
 
@@ -32,23 +33,14 @@ afterAll(async () => {
   }
 })
 
-async function api<T>(jar: CookieJar, path: string, init: { method?: string, json?: unknown } = {}): Promise<T> {
-  const res = await request(jar, path, init)
-  if (!res.ok) throw new Error(`${init.method ?? 'GET'} ${path} answered ${res.status}: ${await res.text()}`)
-  return (res.status === 204 ? null : await res.json()) as T
-}
-
 async function throwAwayDog(fields: Record<string, unknown> = {}) {
-  const dog = await api<DogView>(manager, '/api/dogs', {
-    method: 'POST',
-    json: { callName: unique('Bramble'), registeredName: unique('Larkspur Hollow Bramblewick'), breed: 'Wire Fox Terrier', sex: 'dog', dateOfBirth: '2023-02-17', ...fields },
-  })
+  const dog = await ok<DogView>(manager, '/api/dogs', 'POST', { callName: unique('Bramble'), registeredName: unique('Larkspur Hollow Bramblewick'), breed: 'Wire Fox Terrier', sex: 'dog', dateOfBirth: '2023-02-17', ...fields })
   made.push(dog.id)
   return dog
 }
 
 async function userIdOf(email: string) {
-  const member = (await api<MemberView[]>(manager, '/api/members')).find(m => m.email === email)
+  const member = (await ok<MemberView[]>(manager, '/api/members', 'GET')).find(m => m.email === email)
   if (!member) throw new Error(`No member ${email}`)
   return member.userId
 }
@@ -100,7 +92,7 @@ describe('deleting a dog from its page', () => {
 
   it('a dog with coat work is kept: the dialog says so and offers retiring, which it does', async () => {
     const dog = await throwAwayDog()
-    await api(manager, `/api/dogs/${dog.id}/work`, { method: 'POST', json: { date: '2025-06-02', kind: 'layer', regions: ['neck'] } })
+    await ok(manager, `/api/dogs/${dog.id}/work`, 'POST', { date: '2025-06-02', kind: 'layer', regions: ['neck'] })
     const page = await open('desktop')
     await signInAndOpen(page, 'manager', dog)
 
@@ -110,7 +102,7 @@ describe('deleting a dog from its page', () => {
     expect(await dialog.getByTestId('dog-delete-confirm').count()).toBe(0)
     await dialog.getByRole('button', { name: `Retire ${dog.callName}` }).click()
     await expect.poll(() => page.getByTestId('dog-details').textContent()).toMatch(/Retired/)
-    expect((await api<DogView>(manager, `/api/dogs/${dog.id}`)).status).toBe('retired')
+    expect((await ok<DogView>(manager, `/api/dogs/${dog.id}`, 'GET')).status).toBe('retired')
   })
 
   it('a refused delete says why in a sentence and leaves the dog as it was', async () => {
@@ -121,11 +113,11 @@ describe('deleting a dog from its page', () => {
     const dialog = page.getByRole('dialog', { name: `Delete ${dog.callName}?` })
     await dialog.getByLabel(`Type ${dog.callName} to confirm`).fill(dog.callName)
     // Someone logs work meanwhile: the server keeps the dog (409) and the dialog says so.
-    await api(manager, `/api/dogs/${dog.id}/work`, { method: 'POST', json: { date: '2025-06-02', kind: 'roll', regions: ['rear'] } })
+    await ok(manager, `/api/dogs/${dog.id}/work`, 'POST', { date: '2025-06-02', kind: 'roll', regions: ['rear'] })
     await dialog.getByTestId('dog-delete-confirm').click()
     await expect.poll(() => dialog.getByTestId('dog-delete-problem').textContent()).toBe(`${dog.callName} was not deleted: it has coat work, show entries or tasks on record. Retire it instead, so nothing logged is lost.`)
     expect(page.url()).toBe(`${baseUrl}/dogs/${dog.id}`)
-    expect(await api<DogView>(manager, `/api/dogs/${dog.id}`)).toMatchObject({ callName: dog.callName, status: 'active' })
+    expect(await ok<DogView>(manager, `/api/dogs/${dog.id}`, 'GET')).toMatchObject({ callName: dog.callName, status: 'active' })
   })
 
   it('a handler is not offered the delete', async () => {
@@ -162,7 +154,7 @@ describe('worked by, on the coat-work form', () => {
     expect(await page.getByTestId('work-people').textContent()).toMatch(`Worked by ${assistant.name}, logged by ${handler.name}`)
     // The worker stays chosen for the next piece of the same session.
     expect((await workedBy.locator('option:checked').textContent())?.trim()).toBe(`${assistant.name} · Assistant`)
-    const [work] = await api<CoatWorkLogItem[]>(manager, `/api/dogs/${dog.id}/work`)
+    const [work] = await ok<CoatWorkLogItem[]>(manager, `/api/dogs/${dog.id}/work`, 'GET')
     expect([work?.workedBy?.id, work?.recordedBy?.id]).toEqual([await userIdOf(assistant.email), await userIdOf(handler.email)])
 
     // Editing the entry shows who did it, and a change of notes leaves the worker as they were.

@@ -4,7 +4,8 @@ import type { CoatWorkLogItem, DogView } from '../../../shared/types/kennel'
 import type { MemberView } from '../../../shared/types/organisation'
 import type { TaskView } from '../../../shared/types/tasks'
 import { accessibilityProblems, browserPerTest, gotoHydrated, screenshot, signInThroughForm, type Page } from '../helpers/browser'
-import { baseUrl, request, signedIn, type CookieJar } from '../helpers/http'
+import { baseUrl, signedIn, type CookieJar } from '../helpers/http'
+import { ok } from '../helpers/kennelApi'
 
 // A dog's record of changes on its page: what was logged, changed and given, in words, newest
 // first; an assistant reads the coat work only (DESIGN.md §2: assistants see coat information).
@@ -15,24 +16,15 @@ let manager: CookieJar
 let dog: DogView
 let pipId: number
 
-async function api<T>(jar: CookieJar, path: string, init: { method?: string, json?: unknown } = {}): Promise<T> {
-  const res = await request(jar, path, init)
-  if (!res.ok) throw new Error(`${init.method ?? 'GET'} ${path} answered ${res.status}: ${await res.text()}`)
-  return (res.status === 204 ? null : await res.json()) as T
-}
-
 beforeAll(async () => {
   await db.connect()
   manager = await signedIn('manager')
-  pipId = (await api<MemberView[]>(manager, '/api/members')).find(m => m.email === 'pip@larkspur.example')!.userId
-  dog = await api<DogView>(manager, '/api/dogs', {
-    method: 'POST',
-    json: { callName: `Thimble ${tag}`, registeredName: `Larkspur Hollow Thimblewood ${tag}`, breed: 'Wire Fox Terrier', sex: 'bitch', dateOfBirth: '2022-06-14' },
-  })
-  const work = await api<CoatWorkLogItem>(manager, `/api/dogs/${dog.id}/work`, { method: 'POST', json: { date: '2026-10-19', kind: 'layer', regions: ['neck'], workedById: pipId, minutes: 10 } })
-  await api(manager, `/api/work/${work.id}`, { method: 'PATCH', json: { minutes: 25 } })
-  const task = await api<TaskView>(manager, '/api/tasks', { method: 'POST', json: { dogId: dog.id, regions: ['neck'], kind: 'roll', dueDate: '2026-12-31' } })
-  await api(manager, `/api/tasks/${task.id}`, { method: 'PATCH', json: { assigneeId: pipId } })
+  pipId = (await ok<MemberView[]>(manager, '/api/members', 'GET')).find(m => m.email === 'pip@larkspur.example')!.userId
+  dog = await ok<DogView>(manager, '/api/dogs', 'POST', { callName: `Thimble ${tag}`, registeredName: `Larkspur Hollow Thimblewood ${tag}`, breed: 'Wire Fox Terrier', sex: 'bitch', dateOfBirth: '2022-06-14' })
+  const work = await ok<CoatWorkLogItem>(manager, `/api/dogs/${dog.id}/work`, 'POST', { date: '2026-10-19', kind: 'layer', regions: ['neck'], workedById: pipId, minutes: 10 })
+  await ok(manager, `/api/work/${work.id}`, 'PATCH', { minutes: 25 })
+  const task = await ok<TaskView>(manager, '/api/tasks', 'POST', { dogId: dog.id, regions: ['neck'], kind: 'roll', dueDate: '2026-12-31' })
+  await ok(manager, `/api/tasks/${task.id}`, 'PATCH', { assigneeId: pipId })
 })
 afterAll(async () => {
   // The dog has coat work, which the API keeps (409); the database takes it and its rows out.

@@ -16,28 +16,12 @@ export default defineEventHandler(async (event): Promise<AuditEventView[]> => {
     { organisationId: caller.organisationId, dogKey: String(id), dogId: id, withDog: caller.role !== 'assistant' })
   // The names of the people the rows name by id (who did the work, who has the task, the
   // handler), so the page can say "gave it to Pip" without a member list an assistant may not read.
-  const ids = new Set<number>()
-  for (const r of rows) {
-    for (const side of [r.before, r.after]) {
-      for (const field of AUDIT_PERSON_FIELDS) {
-        const value = side?.[field]
-        if (typeof value === 'number') ids.add(value)
-      }
-    }
-  }
-  const names = ids.size
-    ? new Map((await selectRows<{ id: number, name: string }>(kennelSequelize(), 'SELECT id, name FROM users WHERE id IN (:ids)', { ids: [...ids] })).map(u => [u.id, u.name]))
+  const personIds = (r: (typeof rows)[number]) => [r.before, r.after].flatMap(side => AUDIT_PERSON_FIELDS.map(field => side?.[field]).filter((v): v is number => typeof v === 'number'))
+  const ids = [...new Set(rows.flatMap(personIds))]
+  const names = ids.length
+    ? new Map((await selectRows<{ id: number, name: string }>(kennelSequelize(), 'SELECT id, name FROM users WHERE id IN (:ids)', { ids })).map(u => [u.id, u.name]))
     : new Map<number, string>()
-  const peopleOf = (r: (typeof rows)[number]) => {
-    const people: Record<string, string> = {}
-    for (const side of [r.before, r.after]) {
-      for (const field of AUDIT_PERSON_FIELDS) {
-        const value = side?.[field]
-        if (typeof value === 'number' && names.has(value)) people[value] = names.get(value)!
-      }
-    }
-    return people
-  }
+  const peopleOf = (r: (typeof rows)[number]) => Object.fromEntries(personIds(r).filter(id => names.has(id)).map(id => [id, names.get(id)!]))
   return rows.map(r => ({
     id: Number(r.id),
     people: peopleOf(r),
